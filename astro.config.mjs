@@ -1,0 +1,31 @@
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwind from '@astrojs/tailwind';
+import { defineConfig } from 'astro/config';
+
+const port = Number(process.env.PORT ?? 4321);
+const host = process.env.HOST ?? '127.0.0.1';
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react(), tailwind({ applyBaseStyles: false })],
+  server: { host, port },
+  // Astro's origin check stays on; it needs the served hosts listed to trust the Host header.
+  security: {
+    checkOrigin: true,
+    allowedDomains: [
+      { protocol: 'http', hostname: '127.0.0.1' },
+      { protocol: 'http', hostname: 'localhost' },
+      ...(process.env.SLUICE_PUBLIC_URL
+        ? [{ protocol: new URL(process.env.SLUICE_PUBLIC_URL).protocol.replace(':', ''), hostname: new URL(process.env.SLUICE_PUBLIC_URL).hostname }]
+        : []),
+    ],
+  },
+  vite: {
+    resolve: { alias: { '~': new URL('./src', import.meta.url).pathname } },
+    ssr: { external: ['pg-boss', 'pg', 'nodemailer', 'smtp-server'] },
+  },
+  devToolbar: { enabled: false },
+  telemetry: false,
+});

@@ -1,0 +1,14 @@
+// Loads the invented demo scenario (a small lab: people, device types, and what later steps
+// add). Safe to run again: every step skips what is already there.
+import { closeDb } from '../src/db/client';
+import { DEFAULT_DEMO_PASSWORD, seedDemoPeople } from '../src/lib/server/demo/people';
+import { seedDemoDeviceTypes } from '../src/lib/server/demo/device-types';
+
+const password = process.env.SLUICE_DEMO_PASSWORD ?? DEFAULT_DEMO_PASSWORD;
+try {
+  const people = await seedDemoPeople(password);
+  await seedDemoDeviceTypes();
+  console.log(`[sluice] demo scenario loaded (${people} new accounts)`);
+} finally {
+  await closeDb();
+}

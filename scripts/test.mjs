@@ -1,0 +1,92 @@
+// npm test — the same set-up as `npm start`, against a fresh test database, then every suite:
+// unit (pure code), integration (real PostgreSQL, real HTTP, real SMTP sink) and browser
+// (Debian's Chromium driven by playwright-core).
+import fs from 'node:fs';
+import path from 'node:path';
+import {
+  DATA_DIR, ROOT, aptInstall, capture, databaseUrl, dropDatabase, ensureDatabases, ensureNodeModules, ensurePostgresInstalled,
+  ensureSecrets, fail, log, portInUse, run, startChild, startCluster, waitForHttp, waitForPort, which,
+} from './setup-lib.mjs';
+
+const only = process.argv[2]; // optional: unit | integration | e2e
+const PORT = Number(process.env.SLUICE_TEST_PORT ?? 4399);
+const SMTP_PORT = Number(process.env.SLUICE_TEST_SMTP_PORT ?? 2599);
+
+ensureNodeModules();
+const missing = [];
+if (!which('chromium')) missing.push('chromium');
+if (!which('ngspice')) missing.push('ngspice');
+if (capture('/usr/bin/python3', ['-c', 'import scipy']).status !== 0) missing.push('python3-scipy');
+if (missing.length) aptInstall(missing, 'the test suites');
+
+const secrets = ensureSecrets();
+const bin = ensurePostgresInstalled();
+await startCluster(bin);
+ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, ['sluice', 'sluice_test']);
+dropDatabase(bin, 'sluice_test');
+ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, ['sluice_test']);
+
+const mailDir = path.join(DATA_DIR, 'test-mail');
+const uploadsDir = path.join(DATA_DIR, 'test-uploads');
+fs.rmSync(mailDir, { recursive: true, force: true });
+fs.rmSync(uploadsDir, { recursive: true, force: true });
+const env = {
+  NODE_ENV: 'production',
+  HOST: '127.0.0.1',
+  PORT: String(PORT),
+  DATABASE_URL: databaseUrl(secrets.SLUICE_DB_PASSWORD, 'sluice_test'),
+  BETTER_AUTH_SECRET: secrets.BETTER_AUTH_SECRET,
+  SMTP_HOST: '127.0.0.1',
+  SMTP_PORT: String(SMTP_PORT),
+  SLUICE_MAIL_SINK_DIR: mailDir,
+  SLUICE_UPLOADS_DIR: uploadsDir,
+  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: '1000',
+  SLUICE_TEST_BASE_URL: `http://127.0.0.1:${PORT}`,
+  SLUICE_DEMO_PASSWORD: 'weir-street-demo',
+};
+const envAll = { ...process.env, ...env };
+const bins = path.join(ROOT, 'node_modules', '.bin');
+const reportsDir = path.join(DATA_DIR, 'test-reports');
+fs.rmSync(reportsDir, { recursive: true, force: true });
+fs.mkdirSync(reportsDir, { recursive: true });
+
+function vitest(suite, config) {
+  log(`running the ${suite} tests`);
+  return run(path.join(bins, 'vitest'), ['run', '--config', config, '--reporter=default', '--reporter=json', `--outputFile.json=${path.join(reportsDir, `${suite}.json`)}`], {
+    env: envAll,
+    allowFail: true,
+  }).status;
+}
+
+const statuses = [];
+if (!only || only === 'unit') statuses.push(vitest('unit', 'vitest.config.ts'));
+
+const children = [];
+if (!only || only !== 'unit') {
+  run(path.join(bins, 'tsx'), ['scripts/migrate.ts'], { env: envAll });
+  for (const port of [PORT, SMTP_PORT]) if (await portInUse(port)) fail(`Port ${port} is in use; the test servers need it. Set SLUICE_TEST_PORT / SLUICE_TEST_SMTP_PORT.`);
+  children.push(startChild('mail', path.join(bins, 'tsx'), ['scripts/mail-sink.ts'], env));
+  await waitForPort(SMTP_PORT);
+  run(path.join(bins, 'tsx'), ['scripts/seed-demo.ts'], { env: envAll });
+  log('building the app');
+  run(path.join(bins, 'astro'), ['build'], { env: envAll });
+  children.push(startChild('worker', path.join(bins, 'tsx'), ['src/worker.ts'], env));
+  children.push(startChild('web', process.execPath, [path.join(ROOT, 'dist', 'server', 'entry.mjs')], env));
+  await waitForHttp(`${env.SLUICE_TEST_BASE_URL}/api/health`, 120_000);
+  if (!only || only === 'integration') statuses.push(vitest('integration', 'tests/integration/vitest.config.ts'));
+  if (!only || only === 'e2e') statuses.push(vitest('e2e', 'tests/e2e/vitest.config.ts'));
+  for (const c of children) c.kill('SIGTERM');
+}
+
+let passed = 0;
+let failed = 0;
+let skipped = 0;
+for (const name of fs.readdirSync(reportsDir)) {
+  const r = JSON.parse(fs.readFileSync(path.join(reportsDir, name), 'utf8'));
+  passed += r.numPassedTests;
+  failed += r.numFailedTests;
+  skipped += r.numPendingTests + (r.numTodoTests ?? 0);
+}
+const bad = statuses.some((s) => s !== 0);
+console.log(`\n${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+setTimeout(() => process.exit(bad || failed > 0 || passed === 0 ? 1 : 0), 300);

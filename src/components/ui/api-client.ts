@@ -1,0 +1,59 @@
+import { useCallback, useEffect, useState } from 'react';
+
+/** The error body every Sluice API route returns. */
+export interface ApiErrorBody {
+  error: { code: string; message: string; [k: string]: unknown };
+}
+
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly body: ApiErrorBody | null,
+  ) {
+    super(body?.error?.message ?? `The server answered ${status}.`);
+  }
+}
+
+/** fetch() for the app's own JSON API: throws ApiError with the server's message. */
+export async function apiFetch<T>(url: string, init: RequestInit & { json?: unknown } = {}): Promise<T> {
+  const { json, ...rest } = init;
+  const res = await fetch(url, {
+    credentials: 'same-origin',
+    ...rest,
+    headers: { accept: 'application/json', ...(json !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
+    body: json !== undefined ? JSON.stringify(json) : rest.body,
+  });
+  const text = await res.text();
+  const body = text ? JSON.parse(text) : null;
+  if (!res.ok) throw new ApiError(res.status, body);
+  return body as T;
+}
+
+export interface ApiState<T> {
+  data: T | undefined;
+  error: Error | undefined;
+  loading: boolean;
+  reload: () => void;
+}
+
+/** Loads `url` on mount and whenever it changes; `reload()` fetches again. */
+export function useApi<T>(url: string | null): ApiState<T> {
+  const [data, setData] = useState<T>();
+  const [error, setError] = useState<Error>();
+  const [loading, setLoading] = useState(url !== null);
+  const [tick, setTick] = useState(0);
+  useEffect(() => {
+    if (url === null) return;
+    let live = true;
+    setLoading(true);
+    apiFetch<T>(url)
+      .then((d) => live && (setData(d), setError(undefined)))
+      .catch((e: Error) => live && setError(e))
+      .finally(() => live && setLoading(false));
+    return () => {
+      live = false;
+    };
+  }, [url, tick]);
+  const reload = useCallback(() => setTick((t) => t + 1), []);
+  return { data, error, loading, reload };
+}

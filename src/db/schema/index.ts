@@ -1,0 +1,4 @@
+export * from './auth';
+export * from './catalogue';
+export * from './measurement';
+export * from './stock';

@@ -1,0 +1,189 @@
+/**
+ * Roles as data: which actions each role may take on each resource. Shared by the server
+ * (middleware and services) and the browser (to hide what a person cannot use); the server
+ * is the one that enforces it.
+ */
+export const ROLES = ['admin', 'inspector', 'designer', 'stores'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const STATEMENTS = {
+  users: ['manage'],
+  stations: ['manage'],
+  deviceTypes: ['read', 'manage'],
+  binPlans: ['read', 'manage'],
+  lots: ['read', 'create'],
+  sweeps: ['upload', 'read'],
+  fits: ['review'],
+  parts: ['read'],
+  stock: ['read', 'receive', 'move', 'scrap', 'return', 'labels'],
+  locations: ['manage'],
+  match: ['request', 'reserve'],
+  pickLists: ['read', 'fulfil'],
+  statistics: ['read'],
+  estimates: ['use'],
+  audit: ['read'],
+  devMail: ['read'],
+} as const;
+
+export type Resource = keyof typeof STATEMENTS;
+export type Permission = {
+  [R in Resource]: `${R}:${(typeof STATEMENTS)[R][number]}`;
+}[Resource];
+
+const ROLE_GRANTS: Record<Role, readonly Permission[]> = {
+  admin: [
+    'users:manage',
+    'stations:manage',
+    'deviceTypes:read',
+    'deviceTypes:manage',
+    'binPlans:read',
+    'binPlans:manage',
+    'lots:read',
+    'sweeps:read',
+    'parts:read',
+    'stock:read',
+    'statistics:read',
+    'audit:read',
+    'devMail:read',
+  ],
+  inspector: [
+    'deviceTypes:read',
+    'binPlans:read',
+    'lots:read',
+    'lots:create',
+    'sweeps:upload',
+    'sweeps:read',
+    'fits:review',
+    'parts:read',
+    'statistics:read',
+    'estimates:use',
+    'audit:read',
+  ],
+  designer: [
+    'deviceTypes:read',
+    'binPlans:read',
+    'lots:read',
+    'sweeps:read',
+    'parts:read',
+    'stock:read',
+    'match:request',
+    'match:reserve',
+    'statistics:read',
+    'estimates:use',
+  ],
+  stores: [
+    'deviceTypes:read',
+    'binPlans:read',
+    'lots:read',
+    'parts:read',
+    'stock:read',
+    'stock:receive',
+    'stock:move',
+    'stock:scrap',
+    'stock:return',
+    'stock:labels',
+    'locations:manage',
+    'pickLists:read',
+    'pickLists:fulfil',
+  ],
+};
+
+/** A test station is a machine identity that may only upload sweeps. */
+export const STATION_GRANTS: readonly Permission[] = ['sweeps:upload'];
+
+export function isRole(value: string): value is Role {
+  return (ROLES as readonly string[]).includes(value);
+}
+
+/** Parses the admin plugin's comma-separated role field, ignoring unknown names. */
+export function parseRoles(field: string | null | undefined): Role[] {
+  if (!field) return [];
+  return field
+    .split(',')
+    .map((r) => r.trim())
+    .filter(isRole);
+}
+
+export function hasPermission(roles: readonly Role[], permission: Permission): boolean {
+  return roles.some((r) => ROLE_GRANTS[r].includes(permission));
+}
+
+export function permissionsOf(roles: readonly Role[]): Permission[] {
+  return [...new Set(roles.flatMap((r) => ROLE_GRANTS[r]))];
+}
+
+/** Pages and API routes and what each needs. First match wins; unmatched paths need sign-in. */
+export interface RouteRule {
+  pattern: RegExp;
+  methods?: readonly string[];
+  /** 'public': no sign-in; 'signed-in': any role; else the permission. */
+  need: 'public' | 'signed-in' | Permission | { anyOf: Permission[] };
+}
+
+export const ROUTE_RULES: readonly RouteRule[] = [
+  { pattern: /^\/$/, need: 'public' },
+  { pattern: /^\/(sign-in|set-password|forgot-password|about)\/?$/, need: 'public' },
+  { pattern: /^\/api\/auth\//, need: 'public' },
+  { pattern: /^\/api\/health\/?$/, need: 'public' },
+  { pattern: /^\/api\/openapi\.json$/, need: 'public' },
+  { pattern: /^\/(_astro|fonts|favicon)/, need: 'public' },
+  { pattern: /^\/(admin\/users|api\/admin\/users)/, need: 'users:manage' },
+  { pattern: /^\/(admin\/stations|api\/admin\/stations)/, need: 'stations:manage' },
+  { pattern: /^\/(admin\/device-types|api\/admin\/device-types)/, need: 'deviceTypes:manage' },
+  { pattern: /^\/admin\/bin-plans/, need: 'binPlans:manage' },
+  { pattern: /^\/api\/bin-plans/, methods: ['POST', 'PUT', 'PATCH', 'DELETE'], need: 'binPlans:manage' },
+  { pattern: /^\/api\/bin-plans/, need: 'binPlans:read' },
+  { pattern: /^\/(dev\/mail|api\/dev\/mail)/, need: 'devMail:read' },
+  { pattern: /^\/api\/sweeps\/?$/, methods: ['POST'], need: 'sweeps:upload' },
+  { pattern: /^\/(upload|api\/uploads)/, need: 'sweeps:upload' },
+  { pattern: /^\/(review|api\/review)/, need: 'fits:review' },
+  { pattern: /^\/api\/lots/, methods: ['POST'], need: 'lots:create' },
+  { pattern: /^\/(lots|api\/lots)/, need: 'lots:read' },
+  { pattern: /^\/(parts|api\/parts)/, need: 'parts:read' },
+  { pattern: /^\/api\/stock\/receive/, need: 'stock:receive' },
+  { pattern: /^\/api\/stock\/move/, need: 'stock:move' },
+  { pattern: /^\/api\/stock\/scrap/, need: 'stock:scrap' },
+  { pattern: /^\/api\/stock\/return/, need: 'stock:return' },
+  { pattern: /^\/(stores|api\/stores)/, need: { anyOf: ['stock:receive', 'stock:move'] } },
+  { pattern: /^\/(labels|api\/labels)/, need: 'stock:labels' },
+  { pattern: /^\/api\/locations/, methods: ['POST', 'PUT', 'PATCH', 'DELETE'], need: 'locations:manage' },
+  { pattern: /^\/(locations|api\/locations)/, need: 'stock:read' },
+  { pattern: /^\/(bins|stock|api\/bins|api\/stock)/, need: 'stock:read' },
+  { pattern: /^\/(pick-lists|api\/pick-lists)/, methods: ['POST'], need: 'pickLists:fulfil' },
+  { pattern: /^\/(pick-lists|api\/pick-lists)/, need: { anyOf: ['pickLists:read', 'match:reserve'] } },
+  { pattern: /^\/api\/match\/proposals\/[^/]+\/confirm/, need: 'match:reserve' },
+  { pattern: /^\/(match|api\/match|reservations|api\/reservations)/, need: 'match:request' },
+  { pattern: /^\/(statistics|api\/statistics)/, need: 'statistics:read' },
+  { pattern: /^\/(estimates|api\/estimates)/, need: 'estimates:use' },
+  { pattern: /^\/(audit|api\/audit)/, need: 'audit:read' },
+  { pattern: /^\/(device-types|api\/device-types)/, need: 'deviceTypes:read' },
+];
+
+export function ruleFor(pathname: string, method: string): RouteRule | undefined {
+  return ROUTE_RULES.find((r) => r.pattern.test(pathname) && (!r.methods || r.methods.includes(method)));
+}
+
+export function allows(need: RouteRule['need'], grants: readonly Permission[]): boolean {
+  if (need === 'public' || need === 'signed-in') return true;
+  if (typeof need === 'string') return grants.includes(need);
+  return need.anyOf.some((p) => grants.includes(p));
+}
+
+/** Navigation entries; each shows only to people whose roles allow its page. */
+export const NAVIGATION: readonly { href: string; label: string; need: RouteRule['need'] }[] = [
+  { href: '/upload', label: 'Upload sweeps', need: 'sweeps:upload' },
+  { href: '/review', label: 'Review queue', need: 'fits:review' },
+  { href: '/parts', label: 'Parts', need: 'parts:read' },
+  { href: '/bins', label: 'Bin map', need: 'stock:read' },
+  { href: '/stock', label: 'Stock', need: 'stock:read' },
+  { href: '/stores', label: 'Receive & move', need: { anyOf: ['stock:receive', 'stock:move'] } },
+  { href: '/pick-lists', label: 'Pick lists', need: { anyOf: ['pickLists:read', 'match:reserve'] } },
+  { href: '/match', label: 'Match sets', need: 'match:request' },
+  { href: '/estimates', label: 'Stage estimates', need: 'estimates:use' },
+  { href: '/statistics', label: 'Lot statistics', need: 'statistics:read' },
+  { href: '/admin/users', label: 'People', need: 'users:manage' },
+  { href: '/admin/stations', label: 'Stations', need: 'stations:manage' },
+  { href: '/admin/device-types', label: 'Device types', need: 'deviceTypes:manage' },
+  { href: '/admin/bin-plans', label: 'Bin plans', need: 'binPlans:manage' },
+  { href: '/dev/mail', label: 'Caught mail', need: 'devMail:read' },
+];

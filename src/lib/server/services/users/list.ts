@@ -1,0 +1,33 @@
+import { asc, isNull, eq, and } from 'drizzle-orm';
+import { getDb, schema } from '../../../../db/client';
+import { parseRoles } from '../../../access';
+import { requirePermission, type Actor } from '../../identity';
+
+export interface UserRow {
+  id: string;
+  email: string;
+  name: string;
+  roles: string[];
+  disabled: boolean;
+  invitationPending: boolean;
+  createdAt: string;
+}
+
+export async function listUsers({ actor }: { actor: Actor | null }): Promise<UserRow[]> {
+  requirePermission(actor, 'users:manage');
+  const db = getDb();
+  const rows = await db
+    .select({ u: schema.user, pending: schema.invitation.id })
+    .from(schema.user)
+    .leftJoin(schema.invitation, and(eq(schema.invitation.userId, schema.user.id), isNull(schema.invitation.acceptedAt)))
+    .orderBy(asc(schema.user.email));
+  return rows.map(({ u, pending }) => ({
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    roles: parseRoles(u.role),
+    disabled: Boolean(u.banned),
+    invitationPending: pending !== null,
+    createdAt: u.createdAt.toISOString(),
+  }));
+}

@@ -1,0 +1,28 @@
+import { eq } from 'drizzle-orm';
+import { getDb, schema } from '../../../../db/client';
+import { parseRoles } from '../../../access';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { SetRolesInput } from './schemas';
+
+export async function setUserRoles({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'users:manage');
+  const data = SetRolesInput.parse(input);
+  if (data.userId === actor.userId && !data.roles.includes('admin')) {
+    throw new AppError('conflict', 'You cannot remove your own admin role; ask another admin.');
+  }
+  return getDb().transaction(async (tx) => {
+    const [before] = await tx.select().from(schema.user).where(eq(schema.user.id, data.userId)).for('update');
+    if (!before) throw new AppError('not_found', 'No such person.');
+    await tx.update(schema.user).set({ role: data.roles.join(','), updatedAt: new Date() }).where(eq(schema.user.id, data.userId));
+    await writeAudit(tx, actor, {
+      action: 'user.set_roles',
+      subjectType: 'user',
+      subjectId: data.userId,
+      before: { roles: parseRoles(before.role) },
+      after: { roles: data.roles },
+    });
+    return { id: data.userId, roles: data.roles };
+  });
+}
