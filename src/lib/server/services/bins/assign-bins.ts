@@ -1,0 +1,60 @@
+import { and, eq, inArray } from 'drizzle-orm';
+import { assignBin, type BinPlan } from '../../../../core/binning';
+import { vgsAtCurrentV } from '../../../../core/jfet-model';
+import { schema, type DbOrTx } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import type { Actor } from '../../identity';
+
+/**
+ * Puts each part with an accepted fit into its bin under its type's active plan and records
+ * the assignment. Parts whose type has no active plan keep no bin until a plan is activated.
+ * Runs in the caller's transaction; returns the number of parts whose bin changed.
+ */
+export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partIds: number[]): Promise<number> {
+  if (partIds.length === 0) return 0;
+  const rows = await tx
+    .select({ part: schema.part, fit: schema.fit, type: schema.deviceType })
+    .from(schema.part)
+    .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+    .where(inArray(schema.part.id, partIds));
+  const typeIds = [...new Set(rows.map((r) => r.type.id))];
+  if (typeIds.length === 0) return 0;
+  const plans = await tx
+    .select()
+    .from(schema.binPlan)
+    .where(and(inArray(schema.binPlan.deviceTypeId, typeIds), eq(schema.binPlan.isActive, true)));
+  const planByType = new Map(plans.map((p) => [p.deviceTypeId, p]));
+  const bins = plans.length
+    ? await tx.select().from(schema.bin).where(inArray(schema.bin.binPlanId, plans.map((p) => p.id)))
+    : [];
+  const binByPlanCode = new Map(bins.map((b) => [`${b.binPlanId}:${b.code}`, b]));
+
+  let changed = 0;
+  for (const { part, fit, type } of rows) {
+    const plan = planByType.get(type.id);
+    if (!plan) continue;
+    const definition = plan.definition as BinPlan;
+    const params = { vtoV: fit.vtoV, betaAPerV2: fit.betaAPerV2, lambdaPerV: fit.lambdaPerV, rsOhm: fit.rsOhm, rdOhm: fit.rdOhm };
+    const ref = definition.axes.find((a) => a.quantity === 'vgs_at_current')?.referenceCurrentA;
+    const vgsN = ref ? vgsAtCurrentV(params, ref, type.vdsTestV) : null;
+    const assignment = assignBin(definition, {
+      idssA: fit.idssA,
+      vpV: fit.vpV,
+      vgsAtCurrentV: vgsN === null ? null : type.channel === 'n' ? vgsN : -vgsN,
+    });
+    const target = binByPlanCode.get(`${plan.id}:${assignment.code}`);
+    if (!target || target.id === part.binId) continue;
+    await tx.update(schema.part).set({ binId: target.id, updatedAt: new Date() }).where(eq(schema.part.id, part.id));
+    await tx.insert(schema.binAssignment).values({ partId: part.id, binId: target.id, fitId: fit.id, assignedBy: actor?.userId ?? actor?.stationId ?? null });
+    await writeAudit(tx, actor, {
+      action: 'part.bin',
+      subjectType: 'part',
+      subjectId: part.serial,
+      before: { bin_id: part.binId },
+      after: { bin_id: target.id, bin_code: target.code, plan_version: plan.version },
+    });
+    changed++;
+  }
+  return changed;
+}
