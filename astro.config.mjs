@@ -8,6 +8,8 @@ const host = process.env.HOST ?? '127.0.0.1';
 
 export default defineConfig({
   output: 'server',
+  // Several builds may share one machine (parallel test runs): each can have its own folder.
+  outDir: process.env.SLUICE_BUILD_DIR ?? 'dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react(), tailwind({ applyBaseStyles: false })],
   server: { host, port },

@@ -8,7 +8,13 @@ import {
   ensureSecrets, fail, log, portInUse, run, startChild, startCluster, waitForHttp, waitForPort, which,
 } from './setup-lib.mjs';
 
-const only = process.argv[2]; // optional: unit | integration | e2e
+// node scripts/test.mjs [unit|integration|e2e] [test files...]
+// SLUICE_TEST_DB, SLUICE_TEST_PORT, SLUICE_TEST_SMTP_PORT and SLUICE_BUILD_DIR let several
+// engineers run the suites side by side on one machine.
+const only = process.argv[2];
+const files = process.argv.slice(3);
+const TEST_DB = process.env.SLUICE_TEST_DB ?? 'sluice_test';
+const BUILD_DIR = process.env.SLUICE_BUILD_DIR ?? 'dist';
 const PORT = Number(process.env.SLUICE_TEST_PORT ?? 4399);
 const SMTP_PORT = Number(process.env.SLUICE_TEST_SMTP_PORT ?? 2599);
 
@@ -23,36 +29,39 @@ const secrets = ensureSecrets();
 const bin = ensurePostgresInstalled();
 await startCluster(bin);
 ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, ['sluice', 'sluice_test']);
-dropDatabase(bin, 'sluice_test');
-ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, ['sluice_test']);
+dropDatabase(bin, TEST_DB);
+ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, [TEST_DB]);
 
-const mailDir = path.join(DATA_DIR, 'test-mail');
-const uploadsDir = path.join(DATA_DIR, 'test-uploads');
+const runDir = path.join(DATA_DIR, TEST_DB === 'sluice_test' ? 'test' : TEST_DB);
+const mailDir = path.join(runDir, 'mail');
+const uploadsDir = path.join(runDir, 'uploads');
 fs.rmSync(mailDir, { recursive: true, force: true });
 fs.rmSync(uploadsDir, { recursive: true, force: true });
 const env = {
   NODE_ENV: 'production',
   HOST: '127.0.0.1',
   PORT: String(PORT),
-  DATABASE_URL: databaseUrl(secrets.SLUICE_DB_PASSWORD, 'sluice_test'),
+  DATABASE_URL: databaseUrl(secrets.SLUICE_DB_PASSWORD, TEST_DB),
+  SLUICE_BUILD_DIR: BUILD_DIR,
   BETTER_AUTH_SECRET: secrets.BETTER_AUTH_SECRET,
   SMTP_HOST: '127.0.0.1',
   SMTP_PORT: String(SMTP_PORT),
   SLUICE_MAIL_SINK_DIR: mailDir,
   SLUICE_UPLOADS_DIR: uploadsDir,
-  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: '1000',
+  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: '60',
   SLUICE_TEST_BASE_URL: `http://127.0.0.1:${PORT}`,
   SLUICE_DEMO_PASSWORD: 'weir-street-demo',
 };
 const envAll = { ...process.env, ...env };
 const bins = path.join(ROOT, 'node_modules', '.bin');
-const reportsDir = path.join(DATA_DIR, 'test-reports');
+const reportsDir = path.join(runDir, 'reports');
+const logsDir = path.join(runDir, 'logs');
 fs.rmSync(reportsDir, { recursive: true, force: true });
 fs.mkdirSync(reportsDir, { recursive: true });
 
 function vitest(suite, config) {
   log(`running the ${suite} tests`);
-  return run(path.join(bins, 'vitest'), ['run', '--config', config, '--reporter=default', '--reporter=json', `--outputFile.json=${path.join(reportsDir, `${suite}.json`)}`], {
+  return run(path.join(bins, 'vitest'), ['run', '--config', config, ...files, '--reporter=default', '--reporter=json', `--outputFile.json=${path.join(reportsDir, `${suite}.json`)}`], {
     env: envAll,
     allowFail: true,
   }).status;
@@ -65,17 +74,18 @@ const children = [];
 if (!only || only !== 'unit') {
   run(path.join(bins, 'tsx'), ['scripts/migrate.ts'], { env: envAll });
   for (const port of [PORT, SMTP_PORT]) if (await portInUse(port)) fail(`Port ${port} is in use; the test servers need it. Set SLUICE_TEST_PORT / SLUICE_TEST_SMTP_PORT.`);
-  children.push(startChild('mail', path.join(bins, 'tsx'), ['scripts/mail-sink.ts'], env));
+  children.push(startChild('mail', path.join(bins, 'tsx'), ['scripts/mail-sink.ts'], env, path.join(logsDir, 'mail.log')));
   await waitForPort(SMTP_PORT);
   run(path.join(bins, 'tsx'), ['scripts/seed-demo.ts'], { env: envAll });
   log('building the app');
   run(path.join(bins, 'astro'), ['build'], { env: envAll });
-  children.push(startChild('worker', path.join(bins, 'tsx'), ['src/worker.ts'], env));
-  children.push(startChild('web', process.execPath, [path.join(ROOT, 'dist', 'server', 'entry.mjs')], env));
+  children.push(startChild('worker', path.join(bins, 'tsx'), ['src/worker.ts'], env, path.join(logsDir, 'worker.log')));
+  children.push(startChild('web', process.execPath, [path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs')], env, path.join(logsDir, 'web.log')));
   await waitForHttp(`${env.SLUICE_TEST_BASE_URL}/api/health`, 120_000);
   if (!only || only === 'integration') statuses.push(vitest('integration', 'tests/integration/vitest.config.ts'));
   if (!only || only === 'e2e') statuses.push(vitest('e2e', 'tests/e2e/vitest.config.ts'));
   for (const c of children) c.kill('SIGTERM');
+  log(`server, worker and mail-sink logs of this run: ${path.relative(ROOT, logsDir)}/`);
 }
 
 let passed = 0;

@@ -1,9 +1,12 @@
-import { useState, type FormEvent } from 'react';
+import { useEffect, useState, type FormEvent } from 'react';
 
 /** Signs in through better-auth's e-mail endpoint, then goes to `next`. */
 export default function SignInForm({ next }: { next: string }) {
   const [error, setError] = useState<string>();
   const [busy, setBusy] = useState(false);
+  // The button stays disabled until the island is live, so an early click cannot submit natively.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
 
   async function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
@@ -32,7 +35,7 @@ export default function SignInForm({ next }: { next: string }) {
   }
 
   return (
-    <form onSubmit={submit} className="space-y-4" aria-label="Sign in">
+    <form onSubmit={submit} method="post" className="space-y-4" aria-label="Sign in">
       <div>
         <label className="field" htmlFor="email">E-mail</label>
         <input className="input" id="email" name="email" type="email" autoComplete="username" required />
@@ -42,7 +45,7 @@ export default function SignInForm({ next }: { next: string }) {
         <input className="input" id="password" name="password" type="password" autoComplete="current-password" required />
       </div>
       {error && <p className="notice-error" role="alert">{error}</p>}
-      <button type="submit" className="btn-primary w-full justify-center" disabled={busy}>
+      <button type="submit" className="btn-primary w-full justify-center" disabled={busy || !ready}>
         {busy ? 'Signing in…' : 'Sign in'}
       </button>
     </form>

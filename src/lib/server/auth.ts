@@ -29,6 +29,7 @@ function createAuth() {
     secret: env.authSecret,
     trustedOrigins: env.trustedOrigins,
     telemetry: { enabled: false },
+    logger: { level: 'error' },
     database: drizzleAdapter(getDb(), { provider: 'pg', schema }),
     emailAndPassword: {
       enabled: true,
