@@ -1,0 +1,60 @@
+import type { CurveFamily } from './definitions.ts';
+
+/** One curve sorted by VDS, with the flat index of each point and whether it is fitted. */
+export interface PreparedCurve {
+  vgsV: number;
+  vdsV: Float64Array;
+  idA: Float64Array;
+  flatIndex: Int32Array;
+  /** 1 = fitted; 0 = left out (by the reviewer or by a flag). */
+  included: Uint8Array;
+}
+
+export class CurveFamilyShapeError extends Error {
+  readonly code = 'curve_family_shape';
+}
+
+/**
+ * Sorts each curve by VDS and marks excluded points. Throws `CurveFamilyShapeError` for
+ * data no fit can read: no curves, VDS and ID of unequal length, non-finite numbers.
+ */
+export function prepareCurves(family: CurveFamily, excludedPoints: readonly number[] = []): PreparedCurve[] {
+  if (!family || !Array.isArray(family.curves) || family.curves.length === 0) {
+    throw new CurveFamilyShapeError('The curve family has no curves; upload a sweep with at least one VGS step.');
+  }
+  const excluded = new Set(excludedPoints);
+  let flat = 0;
+  return family.curves.map((curve, c) => {
+    const { vdsV, idA } = curve.points;
+    if (!Number.isFinite(curve.vgsV) || vdsV.length !== idA.length) {
+      throw new CurveFamilyShapeError(
+        `Curve ${c} has ${vdsV.length} VDS values and ${idA.length} ID values (or no VGS); each point needs both.`,
+      );
+    }
+    let sorted = true;
+    for (let i = 1; i < vdsV.length && sorted; i++) sorted = vdsV[i] >= vdsV[i - 1];
+    const n = vdsV.length;
+    const order = new Array<number>(n);
+    for (let i = 0; i < n; i++) order[i] = i;
+    if (!sorted) order.sort((a, b) => vdsV[a] - vdsV[b]);
+    const prepared: PreparedCurve = {
+      vgsV: curve.vgsV,
+      vdsV: new Float64Array(n),
+      idA: new Float64Array(n),
+      flatIndex: new Int32Array(n),
+      included: new Uint8Array(n),
+    };
+    for (let k = 0; k < n; k++) {
+      const i = order[k];
+      if (!Number.isFinite(vdsV[i]) || !Number.isFinite(idA[i])) {
+        throw new CurveFamilyShapeError(`Curve ${c}, point ${i} is not a finite number; fix or drop it before fitting.`);
+      }
+      prepared.vdsV[k] = vdsV[i];
+      prepared.idA[k] = idA[i];
+      prepared.flatIndex[k] = flat + i;
+      prepared.included[k] = excluded.size > 0 && excluded.has(flat + i) ? 0 : 1;
+    }
+    flat += n;
+    return prepared;
+  });
+}
