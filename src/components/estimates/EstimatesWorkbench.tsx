@@ -1,0 +1,421 @@
+import { useState, type FormEvent, type ReactNode } from 'react';
+import type { estimateMixerProducts } from '../../lib/server/services/estimates/estimate-mixer';
+import type { estimateSelfBias } from '../../lib/server/services/estimates/self-bias';
+import type { estimateMatchedSet } from '../../lib/server/services/estimates/matched-set';
+import { sig as formatQuantity } from './sig';
+import { ApiError, apiFetch } from '../ui/api-client';
+import { Empty } from '../ui/states';
+import {
+  DEFAULT_FORM,
+  FIELD_LABELS,
+  FormInputError,
+  fieldErrorsFromServer,
+  mixerBody,
+  partFields,
+  readNumber,
+  readSetRef,
+  selfBiasBody,
+  type EstimateForm,
+  type FieldErrors,
+  type FormField,
+} from './estimate-form';
+import { MixerTable } from './MixerTable';
+import { MatchedSetCard } from './MatchedSetCard';
+
+type MixerResult = Awaited<ReturnType<typeof estimateMixerProducts>>;
+type SelfBiasResult = Awaited<ReturnType<typeof estimateSelfBias>>;
+export type SetResult = Awaited<ReturnType<typeof estimateMatchedSet>>;
+type SelfBiasPointBody = NonNullable<SelfBiasResult['for_target_current']>;
+
+interface PartOutcome {
+  key: string;
+  title: string;
+  selfBias?: SelfBiasResult | null;
+  mixer?: MixerResult | null;
+  errors: string[];
+}
+
+function Field({ field, errors, children, hint, label }: { field: FormField; errors: FieldErrors; children: ReactNode; hint?: string; label?: string }) {
+  const err = errors[field];
+  return (
+    <div>
+      <label className="field" htmlFor={`est-${field}`}>
+        {label ?? FIELD_LABELS[field]}
+      </label>
+      {children}
+      {hint && !err && <p className="mt-0.5 text-xs text-ink-faint">{hint}</p>}
+      {err && (
+        <p className="mt-0.5 text-xs text-state-fault" id={`est-${field}-error`} role="alert">
+          {err}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function v(x: number, digits = 4) {
+  return formatQuantity(x, 'V', digits);
+}
+
+function SelfBiasTable({ r }: { r: SelfBiasResult }) {
+  const rows: [string, SelfBiasPointBody][] = [];
+  if (r.for_target_current) rows.push(['for the target current', r.for_target_current]);
+  if (r.for_source_resistor) rows.push(['with the given resistor', r.for_source_resistor]);
+  return (
+    <div className="overflow-x-auto">
+      <table className="table-plain" aria-label="Self-bias operating points">
+        <thead>
+          <tr>
+            <th>Case</th>
+            <th className="num">Source resistor</th>
+            <th className="num">ID</th>
+            <th className="num">VGS</th>
+            <th className="num">gm</th>
+            <th className="num">gos</th>
+            <th className="num">Gain, RS bypassed</th>
+            <th className="num">Gain, RS unbypassed</th>
+            <th>Saturation</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map(([label, p]) => (
+            <tr key={label}>
+              <td>{label}</td>
+              <td className="num">{formatQuantity(p.source_resistor_ohm, 'Ω')}</td>
+              <td className="num">{formatQuantity(p.drain_current_a, 'A')}</td>
+              <td className="num">{v(p.vgs_v)}</td>
+              <td className="num">{formatQuantity(p.gm_s, 'S')}</td>
+              <td className="num">{formatQuantity(p.gos_s, 'S')}</td>
+              <td className="num">{p.gain ? `${p.gain.bypassed_v_per_v.toFixed(2).replace('-', '\u2212')} V/V` : '—'}</td>
+              <td className="num">{p.gain ? `${p.gain.unbypassed_v_per_v.toFixed(2).replace('-', '\u2212')} V/V` : '—'}</td>
+              <td>{p.saturated ? <span className="tag-ok">saturated</span> : <span className="tag-fault">not saturated</span>}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {rows.some(([, p]) => p.gain) && (
+        <p className="text-xs text-ink-faint mt-1">Gain into RD = {formatQuantity(rows.find(([, p]) => p.gain)![1].gain!.drain_load_ohm, 'Ω', 2)}, at |VDS| {rows[0][1].vds_v} V, gos included.</p>
+      )}
+      {rows.flatMap(([, p]) => p.warnings).map((w) => (
+        <p key={w} className="notice-caution mt-2">
+          {w}
+        </p>
+      ))}
+    </div>
+  );
+}
+
+function PartCard({ o }: { o: PartOutcome }) {
+  const part = o.selfBias?.part ?? o.mixer?.part ?? null;
+  const warnings = [...new Set([...(o.selfBias?.warnings ?? []), ...(o.mixer?.warnings ?? [])])];
+  return (
+    <section className="card space-y-4" aria-label={`Estimates for ${o.title}`}>
+      <header className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
+        <h2>{o.title}</h2>
+        {part && (
+          <span className="text-sm text-ink-soft">
+            {part.device_type} ({part.channel.toUpperCase()}) · lot {part.lot ?? '—'} · fit #{part.fit_id} ({part.fit_review.replace('_', ' ')}) · IDSS{' '}
+            {formatQuantity(part.idss_a, 'A')} at {part.idss_vds_v} V · VP {v(part.vp_v)} · λ {part.lambda_per_v.toPrecision(3)} /V
+            {part.rs_ohm > 0 || part.rd_ohm > 0 ? ` · RS ${formatQuantity(part.rs_ohm, 'Ω')}, RD ${formatQuantity(part.rd_ohm, 'Ω')}` : ''}
+          </span>
+        )}
+      </header>
+      {o.errors.map((e) => (
+        <p key={e} className="notice-error" role="alert">
+          {e}
+        </p>
+      ))}
+      {warnings.map((w) => (
+        <p key={w} className="notice-caution">
+          {w}
+        </p>
+      ))}
+      {o.selfBias && (
+        <div>
+          <h3 className="mb-1">Self-bias</h3>
+          <SelfBiasTable r={o.selfBias} />
+        </div>
+      )}
+      {o.mixer && (
+        <div>
+          <h3 className="mb-1">Square-law mixer</h3>
+          <p className="text-sm mb-2">
+            Bias VGS0 {v(o.mixer.bias.vgs0_v)}
+            {o.mixer.bias.source_resistor_ohm !== null && ` (self-bias with ${formatQuantity(o.mixer.bias.source_resistor_ohm, 'Ω')})`} · drive across gate–source: RF{' '}
+            {v(o.mixer.effective_drive.rf_v)}, LO {v(o.mixer.effective_drive.lo_v)} peak · DC drain current {formatQuantity(o.mixer.dc_drain_current_a, 'A')} ·{' '}
+            <strong>conversion transconductance {formatQuantity(o.mixer.conversion_transconductance_s, 'S')}</strong>
+          </p>
+          <MixerTable rows={o.mixer.products} partKey={o.title} />
+        </div>
+      )}
+    </section>
+  );
+}
+
+function messageOf(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+/** Self-bias, mixer and matched-set estimates for data-sheet values, a stored part or a set. */
+export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: string }) {
+  const [form, setForm] = useState<EstimateForm>(initialSerial ? { ...DEFAULT_FORM, source: 'part', serial: initialSerial } : DEFAULT_FORM);
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const [formMessage, setFormMessage] = useState<string>();
+  const [busy, setBusy] = useState(false);
+  const [outcomes, setOutcomes] = useState<PartOutcome[]>([]);
+  const [setResult, setSetResult] = useState<SetResult | null>(null);
+  const set = (patch: Partial<EstimateForm>) => setForm((f) => ({ ...f, ...patch }));
+
+  const input = (field: FormField, extra: Record<string, unknown> = {}) => ({
+    id: `est-${field}`,
+    className: `input ${errors[field] ? 'border-state-fault' : ''}`,
+    value: String(form[field]),
+    onChange: (e: { target: { value: string } }) => set({ [field]: e.target.value } as Partial<EstimateForm>),
+    'aria-label': FIELD_LABELS[field],
+    'aria-invalid': errors[field] ? true : undefined,
+    'aria-describedby': errors[field] ? `est-${field}-error` : undefined,
+    inputMode: 'decimal' as const,
+    ...extra,
+  });
+
+  async function estimateOne(part: Parameters<typeof selfBiasBody>[1], title: string, serverErrors: FieldErrors): Promise<PartOutcome> {
+    const outcome: PartOutcome = { key: title, title, errors: [] };
+    const local: FieldErrors = {};
+    const sb = selfBiasBody(form, part, local);
+    const mx = form.mixer ? mixerBody(form, part, local) : null;
+    const remap = (fe: FieldErrors): FieldErrors => {
+      if (form.source !== 'set' || !fe.serial) return fe;
+      const { serial, ...rest } = fe;
+      return { ...rest, set_ref: serial };
+    };
+    const calls: Promise<void>[] = [];
+    if (sb) {
+      calls.push(
+        apiFetch<SelfBiasResult>('/api/estimates/self-bias', { method: 'POST', json: sb })
+          .then((r) => void (outcome.selfBias = r))
+          .catch((e) => {
+            outcome.errors.push(`Self-bias: ${messageOf(e)}`);
+            if (e instanceof ApiError) Object.assign(serverErrors, remap(fieldErrorsFromServer('self-bias', e.body)));
+          }),
+      );
+    }
+    if (mx) {
+      calls.push(
+        apiFetch<MixerResult>('/api/estimates/mixer', { method: 'POST', json: mx })
+          .then((r) => void (outcome.mixer = r))
+          .catch((e) => {
+            outcome.errors.push(`Mixer: ${messageOf(e)}`);
+            if (e instanceof ApiError) Object.assign(serverErrors, remap(fieldErrorsFromServer('mixer', e.body)));
+          }),
+      );
+    }
+    await Promise.all(calls);
+    return outcome;
+  }
+
+  async function run(e: FormEvent) {
+    e.preventDefault();
+    setFormMessage(undefined);
+    const local: FieldErrors = {};
+    try {
+      let parts: { ref: Parameters<typeof selfBiasBody>[1]; title: string }[] = [];
+      let setOut: SetResult | null = null;
+      if (form.source === 'set') {
+        const ref = readSetRef(form.set_ref);
+        if ('serials' in ref && ref.serials.length < 2) local.set_ref = 'expected a reservation id, or two or more serials separated by spaces or commas';
+        const target = readNumber(form, 'target_ma', local, false, 1e-3);
+        if (target === undefined && !local.target_ma) local.target_ma = 'needed to compare the parts of a set at one current';
+        const vds = readNumber(form, 'vds_v', local, true);
+        const rd = readNumber(form, 'rd_ohm', local, false);
+        const lo = form.mixer ? readNumber(form, 'lo_mv', local, false, 1e-3) : undefined;
+        if (Object.keys(local).length) throw new FormInputError(local);
+        try {
+          setOut = await apiFetch<SetResult>('/api/estimates/set', {
+            method: 'POST',
+            json: { ...ref, target_drain_current_a: target, vds_v: vds, ...(rd !== undefined ? { drain_load_ohm: rd } : {}), ...(lo !== undefined ? { lo_amplitude_v: lo } : {}) },
+          });
+        } catch (err) {
+          if (err instanceof ApiError) throw new FormInputError(fieldErrorsFromServer('set', err.body), err.message);
+          throw err;
+        }
+        parts = setOut.sets.flatMap((s) => s.parts.map((p) => ({ ref: { serial: p.serial }, title: p.serial })));
+      } else {
+        const ref = partFields(form, local);
+        // Check every input before asking the server, so all mistakes show at once.
+        selfBiasBody(form, ref ?? { serial: '' }, local);
+        if (form.mixer) mixerBody(form, ref ?? { serial: '' }, local);
+        if (Object.keys(local).length || !ref) throw new FormInputError(local);
+        parts = [{ ref, title: 'serial' in ref ? ref.serial : `IDSS ${form.idss_ma} mA, VP ${form.vp_v.trim().replace(/^-/, '\u2212')} V` }];
+      }
+      const probe: FieldErrors = {};
+      for (const p of parts) {
+        selfBiasBody(form, p.ref, probe);
+        if (form.mixer) mixerBody(form, p.ref, probe);
+      }
+      if (Object.keys(probe).length) throw new FormInputError(probe);
+      setBusy(true);
+      const serverErrors: FieldErrors = {};
+      const results = await Promise.all(parts.map((p) => estimateOne(p.ref, p.title, serverErrors)));
+      setErrors(serverErrors);
+      setOutcomes(results);
+      setSetResult(setOut);
+      if (Object.keys(serverErrors).length) setFormMessage(new FormInputError(serverErrors).message);
+      if (!results.some((r) => r.selfBias || r.mixer) && !results.some((r) => r.errors.length)) {
+        setFormMessage('Nothing to estimate: give a target drain current or a source resistor, or switch the mixer on.');
+      }
+    } catch (err) {
+      if (err instanceof FormInputError) {
+        setErrors(err.fields);
+        setFormMessage(err.message);
+      } else {
+        setFormMessage(messageOf(err));
+      }
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const drive = (p: 'lo' | 'rf') => (
+    <fieldset className="rounded border border-paper-line p-3 grid gap-3 grid-cols-2 md:grid-cols-4 items-start">
+      <legend className="px-1 text-sm font-semibold">{p === 'lo' ? 'LO (local oscillator)' : 'RF (signal)'}</legend>
+      <Field field={`${p}_mv`} errors={errors} label="Amplitude (mV peak)">
+        <input {...input(`${p}_mv`)} />
+      </Field>
+      <Field field={`${p}_terminal`} errors={errors} label="Drives the">
+        <select {...input(`${p}_terminal`, { inputMode: undefined })}>
+          <option value="gate">gate</option>
+          <option value="source">source</option>
+        </select>
+      </Field>
+      <Field field={`${p}_mhz`} errors={errors} label="Frequency (MHz)">
+        <input {...input(`${p}_mhz`)} />
+      </Field>
+      <Field field={`${p}_leak_mv`} errors={errors} label="Leak (mV peak)" hint="in-phase copy on the other terminal">
+        <input {...input(`${p}_leak_mv`)} placeholder="0" />
+      </Field>
+    </fieldset>
+  );
+
+  return (
+    <div className="space-y-6">
+      <form onSubmit={run} className="space-y-4" aria-label="Stage estimate inputs" noValidate>
+        <div className="grid gap-4 xl:grid-cols-[1fr_1fr]">
+          <section className="card space-y-3" aria-label="Part">
+            <h2>1 · Part</h2>
+            <div className="flex flex-wrap gap-4 text-sm" role="radiogroup" aria-label="Part source">
+              {(
+                [
+                  ['datasheet', 'Data-sheet IDSS and VP'],
+                  ['part', 'A stored part (serial)'],
+                  ['set', 'A set (reservation or serials)'],
+                ] as const
+              ).map(([val, label]) => (
+                <label key={val} className="flex items-center gap-1.5">
+                  <input type="radio" name="source" checked={form.source === val} onChange={() => set({ source: val })} />
+                  {label}
+                </label>
+              ))}
+            </div>
+            {form.source === 'datasheet' && (
+              <div className="grid gap-3 sm:grid-cols-3">
+                <Field field="idss_ma" errors={errors}>
+                  <input {...input('idss_ma')} />
+                </Field>
+                <Field field="vp_v" errors={errors} hint="negative: N-channel; positive: P">
+                  <input {...input('vp_v')} />
+                </Field>
+                <Field field="lambda_per_v" errors={errors} hint="self-bias only; 0 when blank">
+                  <input {...input('lambda_per_v')} placeholder="0" />
+                </Field>
+              </div>
+            )}
+            {form.source === 'part' && (
+              <Field field="serial" errors={errors} hint="uses the part’s current fit">
+                <input {...input('serial', { inputMode: undefined, autoComplete: 'off' })} />
+              </Field>
+            )}
+            {form.source === 'set' && (
+              <Field field="set_ref" errors={errors} hint="a reservation id, or serials separated by spaces or commas; each part is estimated from its current fit">
+                <textarea {...input('set_ref', { inputMode: undefined, rows: 2 })} />
+              </Field>
+            )}
+            <h2 className="pt-2">2 · Operating point (self-bias)</h2>
+            <div className="grid gap-3 sm:grid-cols-2">
+              <Field field="target_ma" errors={errors} hint="gives the source resistor that sets it">
+                <input {...input('target_ma')} />
+              </Field>
+              <Field field="rs_ohm" errors={errors} hint="gives the current it sets">
+                <input {...input('rs_ohm')} />
+              </Field>
+              <Field field="vds_v" errors={errors}>
+                <input {...input('vds_v')} />
+              </Field>
+              <Field field="rd_ohm" errors={errors} hint="for the voltage gain">
+                <input {...input('rd_ohm')} />
+              </Field>
+            </div>
+          </section>
+          <section className="card space-y-3" aria-label="Mixer">
+            <div className="flex items-center justify-between gap-2">
+              <h2>3 · Square-law mixer</h2>
+              <label className="flex items-center gap-1.5 text-sm">
+                <input type="checkbox" checked={form.mixer} onChange={(e) => set({ mixer: e.target.checked })} /> estimate the mixer
+              </label>
+            </div>
+            {form.mixer && (
+              <>
+                <div className="grid gap-3 sm:grid-cols-[auto_1fr] items-end">
+                  <fieldset className="text-sm">
+                    <legend className="field">{FIELD_LABELS.bias_mode}</legend>
+                    <label className="mr-3 whitespace-nowrap">
+                      <input type="radio" name="bias" checked={form.bias_mode === 'vgs0'} onChange={() => set({ bias_mode: 'vgs0' })} /> VGS0
+                    </label>
+                    <label className="whitespace-nowrap">
+                      <input type="radio" name="bias" checked={form.bias_mode === 'rs'} onChange={() => set({ bias_mode: 'rs' })} /> source resistor
+                    </label>
+                  </fieldset>
+                  {form.bias_mode === 'vgs0' ? (
+                    <Field field="vgs0_v" errors={errors}>
+                      <input {...input('vgs0_v')} />
+                    </Field>
+                  ) : (
+                    <Field field="mixer_rs_ohm" errors={errors}>
+                      <input {...input('mixer_rs_ohm')} />
+                    </Field>
+                  )}
+                </div>
+                {drive('lo')}
+                {drive('rf')}
+                <div className="grid gap-3 sm:grid-cols-2">
+                  <Field field="load_ohm" errors={errors}>
+                    <input {...input('load_ohm')} />
+                  </Field>
+                  <Field field="probe_pf" errors={errors} hint="in parallel with R">
+                    <input {...input('probe_pf')} placeholder="0" />
+                  </Field>
+                </div>
+              </>
+            )}
+          </section>
+        </div>
+        <div className="flex flex-wrap items-center gap-3">
+          <button className="btn-primary" type="submit" disabled={busy}>
+            {busy ? 'Estimating…' : 'Estimate'}
+          </button>
+          <span className="text-sm text-ink-faint">Levels you measured can be typed into the results to see the difference; they stay in this page.</span>
+        </div>
+        {formMessage && (
+          <p className="notice-error" role="alert">
+            {formMessage}
+          </p>
+        )}
+      </form>
+
+      {outcomes.length === 0 && !formMessage && <Empty>Fill in the inputs and press Estimate.</Empty>}
+      {setResult && <MatchedSetCard result={setResult} />}
+      {outcomes.map((o) => (
+        <PartCard key={o.key} o={o} />
+      ))}
+    </div>
+  );
+}

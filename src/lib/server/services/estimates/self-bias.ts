@@ -1,0 +1,73 @@
+import { paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type SelfBiasPoint } from '../../../../core/estimates';
+import type { Channel, JfetParams } from '../../../../core/jfet-model';
+import { getDb } from '../../../../db/client';
+import { requirePermission, type Actor } from '../../identity';
+import { withRequestFields } from './core-errors';
+import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
+import { SelfBiasRequest } from './schemas';
+
+export const SELF_BIAS_MODEL =
+  'SPICE level-1 JFET in saturation (with λ and the fitted RS/RD when the part has them), gate returned to ground through a resistor, VGS = −ID·RS solved exactly; low-frequency small-signal gm and gos.';
+
+export function selfBiasPointBody(p: SelfBiasPoint) {
+  return {
+    drain_current_a: p.idA,
+    vgs_v: p.vgsV,
+    source_resistor_ohm: p.rsOhm,
+    vds_v: p.vdsV,
+    gm_s: p.gmS,
+    gos_s: p.gosS,
+    saturated: p.saturated,
+    gain: p.gain
+      ? { drain_load_ohm: p.gain.drainLoadOhm, bypassed_v_per_v: p.gain.bypassed, unbypassed_v_per_v: p.gain.unbypassed }
+      : null,
+    warnings: p.warnings,
+  };
+}
+
+export const SELF_BIAS_RENAMES = {
+  idA: 'target_drain_current_a',
+  rsOhm: 'source_resistor_ohm',
+} as const;
+
+/**
+ * The self-bias resistor for a target current and/or the current a given resistor sets, with
+ * gm, gos and the common-source gain into an optional drain load.
+ */
+export async function estimateSelfBias({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'estimates:use');
+  const body = SelfBiasRequest.parse(input);
+  const stored = body.serial !== undefined ? await loadPartModel(getDb(), body.serial) : null;
+  let params: JfetParams;
+  let channel: Channel;
+  if (stored) {
+    params = stored.params;
+    channel = stored.channel;
+  } else {
+    channel = body.vp_v! > 0 ? 'p' : 'n';
+    params = withRequestFields(() => paramsFromIdssVp(body.idss_a!, body.vp_v!, body.lambda_per_v ?? 0, body.idss_vds_v ?? 0));
+  }
+  const renames: Record<string, string> = stored
+    ? { ...SELF_BIAS_RENAMES, 'params.vtoV': 'serial', 'params.betaAPerV2': 'serial', 'params.lambdaPerV': 'serial', 'params.rsOhm': 'serial', 'params.rdOhm': 'serial' }
+    : { ...SELF_BIAS_RENAMES, 'params.vtoV': 'vp_v', 'params.betaAPerV2': 'idss_a', 'params.lambdaPerV': 'lambda_per_v' };
+  const options = { drainLoadOhm: body.drain_load_ohm, channel };
+
+  const forTarget =
+    body.target_drain_current_a === undefined
+      ? null
+      : withRequestFields(() => sourceResistorForCurrent(params, body.target_drain_current_a!, body.vds_v, options), renames);
+  const forResistor =
+    body.source_resistor_ohm === undefined
+      ? null
+      : withRequestFields(() => solveSelfBias(params, { rsOhm: body.source_resistor_ohm!, vdsV: body.vds_v, ...options }), renames);
+
+  return {
+    model: SELF_BIAS_MODEL,
+    part: stored ? describePartModel(stored) : null,
+    channel,
+    params: { vto_v: params.vtoV, beta_a_per_v2: params.betaAPerV2, lambda_per_v: params.lambdaPerV, rs_ohm: params.rsOhm, rd_ohm: params.rdOhm },
+    for_target_current: forTarget ? selfBiasPointBody(forTarget) : null,
+    for_source_resistor: forResistor ? selfBiasPointBody(forResistor) : null,
+    warnings: stored ? fitReviewWarnings(stored) : [],
+  };
+}
