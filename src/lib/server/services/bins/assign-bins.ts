@@ -1,14 +1,18 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import { assignBin, type BinPlan } from '../../../../core/binning';
-import { vgsAtCurrentV } from '../../../../core/jfet-model';
 import { schema, type DbOrTx } from '../../../../db/client';
 import { writeAudit } from '../../audit';
 import type { Actor } from '../../identity';
+import { binFiguresOf } from './figures';
+
+/** Fit reviews under which a part is binned. */
+export const BINNABLE_REVIEWS = ['auto_accepted', 'accepted'] as const;
 
 /**
  * Puts each part with an accepted fit into its bin under its type's active plan and records
- * the assignment. Parts whose type has no active plan keep no bin until a plan is activated.
- * Runs in the caller's transaction; returns the number of parts whose bin changed.
+ * the assignment (bin_assignment row and audit entry) when the bin changes. Parts whose type
+ * has no active plan keep no bin until a plan is activated. Runs in the caller's transaction;
+ * returns the number of parts whose bin changed.
  */
 export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partIds: number[]): Promise<number> {
   if (partIds.length === 0) return 0;
@@ -17,9 +21,13 @@ export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partId
     .from(schema.part)
     .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
-    .where(inArray(schema.part.id, partIds));
+    .where(and(inArray(schema.part.id, partIds), inArray(schema.fit.review, [...BINNABLE_REVIEWS])))
+    .orderBy(schema.part.id);
   const typeIds = [...new Set(rows.map((r) => r.type.id))];
   if (typeIds.length === 0) return 0;
+  // Share-lock the types: a plan activation (which locks its type for update) then waits for
+  // this transaction, or this one waits for it and sees the new plan.
+  await tx.select({ id: schema.deviceType.id }).from(schema.deviceType).where(inArray(schema.deviceType.id, typeIds)).orderBy(schema.deviceType.id).for('share');
   const plans = await tx
     .select()
     .from(schema.binPlan)
@@ -35,18 +43,16 @@ export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partId
     const plan = planByType.get(type.id);
     if (!plan) continue;
     const definition = plan.definition as BinPlan;
-    const params = { vtoV: fit.vtoV, betaAPerV2: fit.betaAPerV2, lambdaPerV: fit.lambdaPerV, rsOhm: fit.rsOhm, rdOhm: fit.rdOhm };
-    const ref = definition.axes.find((a) => a.quantity === 'vgs_at_current')?.referenceCurrentA;
-    const vgsN = ref ? vgsAtCurrentV(params, ref, type.vdsTestV) : null;
-    const assignment = assignBin(definition, {
-      idssA: fit.idssA,
-      vpV: fit.vpV,
-      vgsAtCurrentV: vgsN === null ? null : type.channel === 'n' ? vgsN : -vgsN,
-    });
+    const assignment = assignBin(definition, binFiguresOf(fit, type, definition));
     const target = binByPlanCode.get(`${plan.id}:${assignment.code}`);
     if (!target || target.id === part.binId) continue;
     await tx.update(schema.part).set({ binId: target.id, updatedAt: new Date() }).where(eq(schema.part.id, part.id));
-    await tx.insert(schema.binAssignment).values({ partId: part.id, binId: target.id, fitId: fit.id, assignedBy: actor?.userId ?? actor?.stationId ?? null });
+    await tx.insert(schema.binAssignment).values({
+      partId: part.id,
+      binId: target.id,
+      fitId: fit.id,
+      assignedBy: actor?.userId ?? actor?.stationId ?? null,
+    });
     await writeAudit(tx, actor, {
       action: 'part.bin',
       subjectType: 'part',

@@ -1,0 +1,58 @@
+import { and, eq, inArray } from 'drizzle-orm';
+import type { BinPlan } from '../../../../core/binning';
+import { getDb, schema } from '../../../../db/client';
+import { requirePermission, type Actor } from '../../identity';
+import { binJson, type BinJson } from './bin-json';
+import { countSql } from './counts';
+import { findDeviceType } from './device-type-ref';
+import { binColumns } from './list';
+
+/** Statuses drawn on the map: parts that are binned and still ours or out on issue. */
+export const MAP_STATUSES = ['accepted', 'in_stock', 'reserved', 'issued', 'returned'] as const;
+
+export interface BinMapData {
+  device_type: { id: number; name: string; channel: 'n' | 'p'; vds_test_v: number };
+  plan: { id: number; version: number; name: string; definition: BinPlan } | null;
+  bins: BinJson[];
+  points: { serial: string; idss_a: number; vp_v: number; status: string; bin_id: number | null }[];
+  /** Parts left off the scatter when there are more than the limit. */
+  points_left_off: number;
+}
+
+const POINT_LIMIT = 5000;
+
+/** A device type's active plan, its bins with counts and its binned parts' (IDSS, VP) points. */
+export async function getBinMap({ actor, deviceType }: { actor: Actor | null; deviceType: string }): Promise<BinMapData> {
+  requirePermission(actor, 'stock:read');
+  const db = getDb();
+  const type = await findDeviceType(db, deviceType);
+  const [plan] = await db
+    .select()
+    .from(schema.binPlan)
+    .where(and(eq(schema.binPlan.deviceTypeId, type.id), eq(schema.binPlan.isActive, true)));
+  const deviceTypeJson = { id: type.id, name: type.name, channel: type.channel, vds_test_v: type.vdsTestV };
+  if (!plan) return { device_type: deviceTypeJson, plan: null, bins: [], points: [], points_left_off: 0 };
+  const binRows = await db
+    .select({ ...binColumns, onHand: countSql.onHand, reserved: countSql.reserved, issued: countSql.issued })
+    .from(schema.bin)
+    .innerJoin(schema.binPlan, eq(schema.binPlan.id, schema.bin.binPlanId))
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.binPlan.deviceTypeId))
+    .leftJoin(schema.location, eq(schema.location.id, schema.bin.homeLocationId))
+    .where(eq(schema.bin.binPlanId, plan.id))
+    .orderBy(schema.bin.id);
+  const bins = binRows.map((r) => binJson(r, { onHand: r.onHand, reserved: r.reserved, issued: r.issued }));
+  const points = await db
+    .select({ serial: schema.part.serial, idssA: schema.fit.idssA, vpV: schema.fit.vpV, status: schema.part.status, binId: schema.part.binId })
+    .from(schema.part)
+    .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .where(and(eq(schema.part.deviceTypeId, type.id), inArray(schema.part.status, [...MAP_STATUSES])))
+    .orderBy(schema.part.id)
+    .limit(POINT_LIMIT + 1);
+  return {
+    device_type: deviceTypeJson,
+    plan: { id: plan.id, version: plan.version, name: plan.name, definition: plan.definition as BinPlan },
+    bins,
+    points: points.slice(0, POINT_LIMIT).map((p) => ({ serial: p.serial, idss_a: p.idssA, vp_v: p.vpV, status: p.status, bin_id: p.binId })),
+    points_left_off: Math.max(0, points.length - POINT_LIMIT),
+  };
+}

@@ -1,0 +1,61 @@
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { formatQuantity } from '../../../../core/units/format-quantity';
+import { getDb, schema } from '../../../../db/client';
+import { requirePermission, type Actor } from '../../identity';
+import { collectScanBatch } from '../../../../core/stock/scan-batch';
+import { alias } from 'drizzle-orm/pg-core';
+
+export interface LabelContent {
+  /** What the barcode encodes: a bin code or a part serial. */
+  barcodeText: string;
+  title: string;
+  lines: string[];
+}
+
+const home = alias(schema.location, 'home_location');
+
+/** Bin labels for bins of one plan (or the given bin ids): code as barcode, ranges and home. */
+export async function binLabels({ actor, binIds }: { actor: Actor | null; binIds: number[] }): Promise<LabelContent[]> {
+  requirePermission(actor, 'stock:labels');
+  if (!binIds.length) return [];
+  const rows = await getDb()
+    .select({ code: schema.bin.code, label: schema.bin.label, type: schema.deviceType.name, version: schema.binPlan.version, location: schema.location.name })
+    .from(schema.bin)
+    .innerJoin(schema.binPlan, eq(schema.binPlan.id, schema.bin.binPlanId))
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.binPlan.deviceTypeId))
+    .leftJoin(schema.location, eq(schema.location.id, schema.bin.homeLocationId))
+    .where(inArray(schema.bin.id, binIds))
+    .orderBy(asc(schema.bin.id));
+  return rows.map((r) => ({
+    barcodeText: r.code,
+    title: `${r.type} · ${r.code}`,
+    lines: [...r.label.split(' · '), `plan v${r.version}${r.location ? ` · ${r.location}` : ''}`],
+  }));
+}
+
+/** Part labels: serial as barcode, type, bin and the two binning figures. */
+export async function partLabels({ actor, serials }: { actor: Actor | null; serials: string[] }): Promise<{ labels: LabelContent[]; unknown: string[] }> {
+  requirePermission(actor, 'stock:labels');
+  const list = collectScanBatch(serials).serials.slice(0, 500);
+  if (!list.length) return { labels: [], unknown: [] };
+  const rows = await getDb()
+    .select({ serial: schema.part.serial, type: schema.deviceType.name, bin: schema.bin.code, idssA: schema.fit.idssA, vpV: schema.fit.vpV, vds: schema.fit.idssVdsV, home: home.name })
+    .from(schema.part)
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+    .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
+    .leftJoin(home, eq(home.id, schema.bin.homeLocationId))
+    .leftJoin(schema.fit, and(eq(schema.fit.id, schema.part.currentFitId)))
+    .where(inArray(schema.part.serial, list));
+  const bySerial = new Map(rows.map((r) => [r.serial, r]));
+  const labels: LabelContent[] = [];
+  for (const s of list) {
+    const r = bySerial.get(s);
+    if (!r) continue;
+    const figures =
+      r.idssA !== null && r.vpV !== null
+        ? [`IDSS ${formatQuantity(r.idssA, 'A', 2)} at ${r.vds} V`, `VP ${formatQuantity(r.vpV, 'V', 2)}`]
+        : ['not yet fitted'];
+    labels.push({ barcodeText: r.serial, title: r.serial, lines: [`${r.type}${r.bin ? ` · bin ${r.bin}` : ''}`, ...figures, ...(r.home ? [r.home] : [])] });
+  }
+  return { labels, unknown: list.filter((s) => !bySerial.has(s)) };
+}
