@@ -41,3 +41,14 @@ describe('formatQuantityRange', () => {
     expect(formatQuantityRange(-0.1, 0.1, 'V', 0)).toBe('\u2212100 to 100 mV');
   });
 });
+
+describe('formatQuantityRange near zero', () => {
+  // Common practice: bin labels are written "VP −0.4 to −0.8 V", not in millivolts.
+  it('keeps the base unit while the larger end reads at least 0.1', () => {
+    expect(formatQuantityRange(-0.4, -0.8, 'V', 1)).toBe('−0.4 to −0.8 V');
+    expect(formatQuantityRange(0.5e-3, 1e-3, 'A', 1)).toBe('0.5–1.0 mA');
+  });
+  it('falls back to the finer prefix rather than rounding the ends away', () => {
+    expect(formatQuantityRange(-0.04, -0.08, 'V', 0)).toBe('−40 to −80 mV');
+  });
+});

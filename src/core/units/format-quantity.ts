@@ -93,7 +93,8 @@ export function formatQuantity(value: number, unit: QuantityUnit, digits = 2): s
 }
 
 /**
- * Formats a range with one shared prefix (chosen from the larger magnitude):
+ * Formats a range with one shared prefix, chosen so the larger end reads at least 0.1
+ * ("−0.4 to −0.8 V", not "−400 to −800 mV", as bin labels are usually written):
  * "6.0–6.5 mA" when both ends are ≥ 0; "−1.8 to −2.0 V" when either end is negative, since an
  * en dash next to a minus sign reads badly. The ends are printed in the order given.
  */
@@ -104,9 +105,17 @@ export function formatQuantityRange(
   digits = 2,
 ): string {
   if (!Number.isFinite(fromValue) || !Number.isFinite(toValue)) return '—';
-  const prefix = chooseUnitPrefix(Math.max(Math.abs(fromValue), Math.abs(toValue)), unit, digits);
-  const a = formatNumber(fromValue / prefix.factor, digits);
-  const b = formatNumber(toValue / prefix.factor, digits);
+  const largest = Math.max(Math.abs(fromValue), Math.abs(toValue));
+  let prefix = chooseUnitPrefix(10 * largest, unit, digits);
+  let a = formatNumber(fromValue / prefix.factor, digits);
+  let b = formatNumber(toValue / prefix.factor, digits);
+  const lost = (text: string, value: number) => value !== 0 && Number(text.replace(MINUS_SIGN, '-')) === 0;
+  if (a === b || lost(a, fromValue) || lost(b, toValue)) {
+    // The larger prefix would round the ends together or to zero: keep the finer one.
+    prefix = chooseUnitPrefix(largest, unit, digits);
+    a = formatNumber(fromValue / prefix.factor, digits);
+    b = formatNumber(toValue / prefix.factor, digits);
+  }
   const joiner = a.startsWith(MINUS_SIGN) || b.startsWith(MINUS_SIGN) ? ' to ' : '–';
   return `${a}${joiner}${b} ${prefix.symbol}${unit}`;
 }
