@@ -1,0 +1,75 @@
+import { useState } from 'react';
+import type { PickListSummary } from '../../lib/server/services/pick-lists/list';
+import { STATUS_TAG, dateTime, relativeTo } from '../match/figures';
+import { useApi } from '../ui/api-client';
+import { Empty, ErrorNotice, Loading } from '../ui/states';
+
+const FILTERS = [
+  ['open', 'Open'],
+  ['complete', 'Complete'],
+  ['cancelled', 'Cancelled'],
+  ['all', 'All'],
+] as const;
+
+export default function PickListIndex() {
+  const [status, setStatus] = useState<(typeof FILTERS)[number][0]>('open');
+  const { data, error, loading, reload } = useApi<{ pick_lists: PickListSummary[] }>(`/api/pick-lists?status=${status}`);
+  const rows = data?.pick_lists ?? [];
+  return (
+    <div className="space-y-4">
+      <div className="flex gap-1" role="tablist" aria-label="Which pick lists">
+        {FILTERS.map(([k, label]) => (
+          <button key={k} type="button" role="tab" aria-selected={status === k} className={status === k ? 'btn-primary' : 'btn-quiet'} onClick={() => setStatus(k)}>
+            {label}
+          </button>
+        ))}
+      </div>
+      {loading && !data && <Loading what="pick lists" />}
+      {error && <ErrorNotice error={error} retry={reload} />}
+      {data && rows.length === 0 && <Empty>{status === 'open' ? 'No open pick lists: nothing is waiting to be picked.' : 'No pick lists here.'}</Empty>}
+      {rows.length > 0 && (
+        <div className="card p-0 overflow-x-auto">
+          <table className="table-plain" aria-label="Pick lists">
+            <thead>
+              <tr>
+                <th>List</th>
+                <th>Status</th>
+                <th>For</th>
+                <th>Sets</th>
+                <th>Picked</th>
+                <th>Start at</th>
+                <th>Made</th>
+                <th>Reservation expires</th>
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((l) => (
+                <tr key={l.id}>
+                  <td>
+                    <a className="font-mono" href={`/pick-lists/${l.id}`}>{l.code}</a>
+                  </td>
+                  <td>
+                    <span className={STATUS_TAG[l.status] ?? 'tag-plain'}>{l.status}</span>
+                  </td>
+                  <td>
+                    {l.reservation.designer_name}
+                    {l.reservation.purpose && <span className="text-ink-faint"> · {l.reservation.purpose}</span>}
+                  </td>
+                  <td>
+                    {l.sets} × {l.device_type ?? '—'}
+                  </td>
+                  <td className="num">
+                    {l.lines_picked} / {l.lines_total}
+                  </td>
+                  <td>{l.status === 'open' ? (l.first_location ?? '—') : '—'}</td>
+                  <td>{dateTime(l.created_at)}</td>
+                  <td>{l.reservation.status === 'active' ? relativeTo(l.reservation.expires_at) : l.reservation.status}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}

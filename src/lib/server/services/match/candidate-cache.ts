@@ -1,0 +1,108 @@
+import type { MatchCandidate } from '../../../../core/match/match-types';
+import { getPool } from '../../../../db/client';
+
+/**
+ * The in-stock parts of one device type with their current fitted models, held in this server
+ * process so a match request does not read 100 000 rows from PostgreSQL each time.
+ *
+ * Freshness: every request first reads the type's stock version — count, Σ id, Σ current fit,
+ * Σ bin, Σ lot and max(updated_at) over its in-stock parts — in one aggregate over the
+ * (device_type_id, status) index, and rebuilds the entry when it differs. A part entering or
+ * leaving stock changes the count or Σ id; a new fit, a bin change or a new lot changes its
+ * sum; every status change also moves max(updated_at). A change that slips past this (two
+ * moves that cancel in every sum inside one read) can only make a proposal offer a part that
+ * is gone or miss one that arrived: the chosen parts are re-read from the database before they
+ * are shown, and confirmation locks and re-checks every part, so a stale entry can never
+ * reserve a part twice.
+ */
+export interface TypeStock {
+  deviceTypeId: number;
+  version: string;
+  /** Slot i: the part's database id, bin id (0 when none) and the candidate given to the core. */
+  partIds: Int32Array;
+  binIds: Int32Array;
+  candidates: MatchCandidate[];
+  /** Serial → slot. */
+  slotBySerial: Map<string, number>;
+  builtAt: Date;
+}
+
+const entries = new Map<number, TypeStock>();
+const building = new Map<number, Promise<TypeStock>>();
+
+const VERSION_SQL = `
+  SELECT count(*)::text || ':' || coalesce(sum(id), 0)::text || ':' || coalesce(sum(current_fit_id), 0)::text || ':' ||
+         coalesce(sum(bin_id), 0)::text || ':' || coalesce(sum(lot_id), 0)::text || ':' ||
+         coalesce(to_char(max(updated_at) AT TIME ZONE 'UTC', 'YYYYMMDDHH24MISSUS'), '-') AS version
+  FROM part WHERE device_type_id = $1 AND status = 'in_stock'`;
+
+const LOAD_SQL = `
+  SELECT p.id, p.serial, p.lot_id, p.bin_id, f.vto_v, f.beta_a_per_v2, f.lambda_per_v, f.rs_ohm, f.rd_ohm
+  FROM part p JOIN fit f ON f.id = p.current_fit_id
+  WHERE p.device_type_id = $1 AND p.status = 'in_stock'
+  ORDER BY p.id`;
+
+/** The stock version of a type: one indexed aggregate (see the module comment). */
+export async function readStockVersion(deviceTypeId: number): Promise<string> {
+  const r = await getPool().query<{ version: string }>({ name: 'match-stock-version', text: VERSION_SQL, values: [deviceTypeId] });
+  return r.rows[0]!.version;
+}
+
+async function build(deviceTypeId: number): Promise<TypeStock> {
+  const client = await getPool().connect();
+  try {
+    // One snapshot for the version and the rows, so the version describes exactly these rows.
+    await client.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
+    const v = await client.query<{ version: string }>(VERSION_SQL, [deviceTypeId]);
+    const rows = await client.query({ text: LOAD_SQL, values: [deviceTypeId], rowMode: 'array' });
+    await client.query('COMMIT');
+    const n = rows.rows.length;
+    const partIds = new Int32Array(n);
+    const binIds = new Int32Array(n);
+    const candidates: MatchCandidate[] = new Array(n);
+    const slotBySerial = new Map<string, number>();
+    for (let i = 0; i < n; i++) {
+      const [id, serial, lotId, binId, vto, beta, lambda, rs, rd] = rows.rows[i] as [
+        number, string, number | null, number | null, number, number, number, number, number,
+      ];
+      partIds[i] = id;
+      binIds[i] = binId ?? 0;
+      slotBySerial.set(serial, i);
+      candidates[i] = {
+        id: serial,
+        lotId: lotId === null ? null : String(lotId),
+        binCode: null,
+        params: { vtoV: vto, betaAPerV2: beta, lambdaPerV: lambda, rsOhm: rs, rdOhm: rd },
+      };
+    }
+    return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date() };
+  } catch (err) {
+    await client.query('ROLLBACK').catch(() => undefined);
+    throw err;
+  } finally {
+    client.release();
+  }
+}
+
+/**
+ * The current in-stock candidates of a type: the cached entry when its version still holds,
+ * else a fresh load (concurrent requests for one type share one load). `rebuilt` says which.
+ */
+export async function loadTypeStock(deviceTypeId: number): Promise<{ stock: TypeStock; rebuilt: boolean }> {
+  const version = await readStockVersion(deviceTypeId);
+  const cached = entries.get(deviceTypeId);
+  if (cached && cached.version === version) return { stock: cached, rebuilt: false };
+  let pending = building.get(deviceTypeId);
+  if (!pending) {
+    pending = build(deviceTypeId).finally(() => building.delete(deviceTypeId));
+    building.set(deviceTypeId, pending);
+  }
+  const stock = await pending;
+  entries.set(deviceTypeId, stock);
+  return { stock, rebuilt: true };
+}
+
+/** Drops every cached entry (tests, or after a bulk change made outside the app). */
+export function clearCandidateCache(): void {
+  entries.clear();
+}

@@ -1,0 +1,32 @@
+import { eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, schema, type DbOrTx } from '../../../../db/client';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import type { StoredProposalResult } from './create-proposal';
+import type { ProposalView } from './proposal-view';
+
+export const ProposalId = z.uuid('a proposal id is a UUID');
+
+/** A stored proposal row of the actor's own, or not_found (another designer's looks absent). */
+export async function loadOwnProposal(db: DbOrTx, actor: Actor, id: string, lock = false) {
+  const parsed = ProposalId.safeParse(id);
+  if (!parsed.success) throw new AppError('not_found', `There is no match proposal ${id}.`);
+  const q = db.select().from(schema.matchProposal).where(eq(schema.matchProposal.id, parsed.data));
+  const [row] = lock ? await q.for('update') : await q;
+  if (!row || row.designerUserId !== actor.userId) {
+    throw new AppError('not_found', `There is no match proposal ${id} of yours. Ask for a new one on the match page.`);
+  }
+  return row;
+}
+
+export async function getMatchProposal({ actor, id }: { actor: Actor | null; id: string }): Promise<ProposalView> {
+  requirePermission(actor, 'match:request');
+  const row = await loadOwnProposal(getDb(), actor, id);
+  return {
+    id: row.id,
+    created_at: row.createdAt.toISOString(),
+    reservation_id: row.confirmedReservationId,
+    ...(row.result as StoredProposalResult),
+  };
+}

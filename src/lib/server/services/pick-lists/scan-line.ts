@@ -1,0 +1,137 @@
+import { and, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { describePartStatus, type PartStatus } from '../../../../core/stock/part-transitions';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { changePartStatuses } from '../parts/change-status';
+import { expireDueReservations } from '../reservations/expire';
+import { pickListCode, reservationCode } from '../reservations/reservation-view';
+import { parsePickListId } from './get';
+import { mailIssuedReservation } from './mail-issued';
+import { loadPickListView, type PickListView } from './pick-list-view';
+
+export const ScanRequest = z.object({
+  serial: z.string().trim().min(1, 'scan or type the serial on the part'),
+  /** The line the picker is confirming; when given, a serial of another line is refused. */
+  line_no: z.number().int().positive().optional(),
+});
+
+export type ScanRefusal = 'not_on_list' | 'already_picked' | 'other_line' | 'list_closed';
+
+export interface ScanResult {
+  line_no: number;
+  serial: string;
+  complete: boolean;
+  /** Parts issued when this scan completed the list. */
+  issued: string[];
+  mailed_to: string | null;
+  pick_list: PickListView;
+}
+
+function refuse(refusal: ScanRefusal, message: string, extra: Record<string, unknown> = {}): never {
+  throw new AppError('conflict', message, { refusal, ...extra });
+}
+
+/**
+ * Stores confirm one line by scanning its part's serial. A serial is refused, saying why, when
+ * it is not on this list, was already picked, or belongs to another line than the one being
+ * confirmed. The scan that picks the last line issues every part (reserved → issued), closes
+ * the reservation and the list in the same transaction, then mails the designer.
+ * Locks the reservation, then the list (the order cancel and expiry use too).
+ */
+export async function scanPickLine({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<ScanResult> {
+  requirePermission(actor, 'pickLists:fulfil');
+  const listId = parsePickListId(id);
+  const { serial, line_no: lineNo } = ScanRequest.parse(input);
+  await expireDueReservations();
+  const db = getDb();
+  const out = await db.transaction(async (tx) => {
+    const [head] = await tx.select({ reservationId: schema.pickList.reservationId }).from(schema.pickList).where(eq(schema.pickList.id, listId));
+    if (!head) throw new AppError('not_found', `There is no pick list ${pickListCode(listId)}.`);
+    const [reservation] = await tx.select().from(schema.reservation).where(eq(schema.reservation.id, head.reservationId)).for('update');
+    const [list] = await tx.select().from(schema.pickList).where(eq(schema.pickList.id, listId)).for('update');
+    const code = pickListCode(listId);
+    if (list!.status !== 'open') {
+      refuse('list_closed', `Pick list ${code} is ${list!.status}; nothing more is picked on it.${list!.status === 'cancelled' ? ' Put any parts taken for it back in their locations.' : ''}`);
+    }
+    if (reservation!.status !== 'active') {
+      refuse('list_closed', `Reservation ${reservationCode(reservation!.id)} is ${reservation!.status}; this list can no longer be picked.`);
+    }
+    const lines = await tx
+      .select({ line: schema.pickLine, serial: schema.part.serial, location: schema.location.name, pickerName: schema.user.name })
+      .from(schema.pickLine)
+      .innerJoin(schema.part, eq(schema.part.id, schema.pickLine.partId))
+      .leftJoin(schema.location, eq(schema.location.id, schema.pickLine.locationId))
+      .leftJoin(schema.user, eq(schema.user.id, schema.pickLine.pickedBy))
+      .where(eq(schema.pickLine.pickListId, listId))
+      .orderBy(schema.pickLine.lineNo);
+    const hit =
+      lines.find((l) => l.serial === serial) ?? lines.find((l) => l.serial.toLowerCase() === serial.toLowerCase());
+    if (!hit) {
+      const [other] = await tx
+        .select({ status: schema.part.status, location: schema.location.name })
+        .from(schema.part)
+        .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
+        .where(sql`lower(${schema.part.serial}) = lower(${serial})`);
+      const what = other
+        ? `That part is ${describePartStatus(other.status as PartStatus)}${other.location ? ` at ${other.location}` : ''}; leave it where it is.`
+        : 'No part has that serial: check the label, or type it by hand.';
+      refuse('not_on_list', `${serial} is not on pick list ${code}. ${what}`);
+    }
+    if (hit.line.pickedAt) {
+      const at = hit.line.pickedAt.toISOString().slice(11, 16);
+      refuse('already_picked', `${hit.serial} was already picked (line ${hit.line.lineNo}, at ${at} UTC${hit.pickerName ? ` by ${hit.pickerName}` : ''}).`, {
+        line_no: hit.line.lineNo,
+      });
+    }
+    if (lineNo !== undefined && hit.line.lineNo !== lineNo) {
+      const want = lines.find((l) => l.line.lineNo === lineNo);
+      refuse(
+        'other_line',
+        `${hit.serial} belongs to line ${hit.line.lineNo}${hit.location ? ` (${hit.location})` : ''}, not line ${lineNo}. ` +
+          (want ? `Line ${lineNo} wants ${want.serial}${want.location ? ` from ${want.location}` : ''}.` : ''),
+        { line_no: hit.line.lineNo },
+      );
+    }
+    const now = new Date();
+    await tx.update(schema.pickLine).set({ pickedAt: now, pickedBy: actor.userId }).where(eq(schema.pickLine.id, hit.line.id));
+    await writeAudit(tx, actor, {
+      action: 'pick_line.pick',
+      subjectType: 'part',
+      subjectId: hit.serial,
+      after: { pick_list: code, line_no: hit.line.lineNo },
+    });
+    const remaining = lines.filter((l) => !l.line.pickedAt && l.line.id !== hit.line.id).length;
+    let issued: string[] = [];
+    if (remaining === 0) {
+      const changed = await changePartStatuses(
+        tx,
+        actor,
+        lines.map((l) => ({ partId: l.line.partId, to: 'issued' })),
+        { action: 'part.issue', reason: `pick list ${code} for reservation ${reservationCode(reservation!.id)}` },
+      );
+      issued = changed.map((c) => c.serial);
+      await tx.update(schema.pickList).set({ status: 'complete', completedAt: now, completedBy: actor.userId }).where(and(eq(schema.pickList.id, listId)));
+      await tx.update(schema.reservation).set({ status: 'issued', closedAt: now }).where(eq(schema.reservation.id, reservation!.id));
+      await writeAudit(tx, actor, {
+        action: 'reservation.issue',
+        subjectType: 'reservation',
+        subjectId: reservation!.id,
+        before: { status: 'active' },
+        after: { status: 'issued', pick_list: code, parts: issued },
+      });
+    }
+    return { lineNo: hit.line.lineNo, serial: hit.serial, issued, reservationId: reservation!.id };
+  });
+  const mailedTo = out.issued.length ? await mailIssuedReservation(out.reservationId) : null;
+  return {
+    line_no: out.lineNo,
+    serial: out.serial,
+    complete: out.issued.length > 0,
+    issued: out.issued,
+    mailed_to: mailedTo,
+    pick_list: (await loadPickListView(db, listId))!,
+  };
+}

@@ -1,0 +1,120 @@
+import { eq, inArray } from 'drizzle-orm';
+import { formatModelCard } from '../../../../core/fit/model-card';
+import { getDb, schema } from '../../../../db/client';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import type { StoredProposalResult } from '../match/create-proposal';
+import { loadOwnProposal } from '../match/get-proposal';
+import { loadOwnReservation } from './get';
+import { reservationCode } from './reservation-view';
+
+export type SetExportFormat = 'spice' | 'csv';
+
+export interface ExportFile {
+  filename: string;
+  contentType: string;
+  body: string;
+}
+
+const CSV_COLUMNS = [
+  'set', 'role', 'cascode', 'serial', 'lot', 'bin', 'location', 'id_a', 'vds_v', 'vgs_v', 'gm_s', 'idss_a', 'vds_sat_v',
+  'vto_v', 'beta_a_per_v2', 'lambda_per_v', 'rs_ohm', 'rd_ohm', 'temperature_c',
+  'set_dvgs_v', 'set_gm_mismatch', 'set_idss_mismatch', 'set_cascode_headroom_v',
+] as const;
+
+function csvCell(v: unknown): string {
+  if (v === null || v === undefined) return '';
+  const s = typeof v === 'number' ? String(v) : String(v);
+  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+function describeOperatingPoint(op: StoredProposalResult['operating_point']): string {
+  if (op.kind === 'current') return `ID = ${op.id_a} A, VDS = ${op.vds_v} V`;
+  if (op.kind === 'idss') return `VGS = 0 (IDSS), VDS = ${op.vds_v} V`;
+  return `self-bias RS = ${op.rs_ohm} ohm, VDS = ${op.vds_v} V`;
+}
+
+/** The model cards (NJF/PJF, one per part, named by serial) or the CSV of one set's figures. */
+async function exportSet(result: StoredProposalResult, setNo: number, label: string, format: SetExportFormat): Promise<ExportFile> {
+  const set = result.sets[setNo - 1];
+  if (!set) throw new AppError('not_found', `There is no set ${setNo} in ${label}; it has ${result.sets.length}.`);
+  const ids = set.parts.map((p) => p.part_id);
+  const rows = await getDb()
+    .select({ partId: schema.part.id, fit: schema.fit, temperatureC: schema.sweep.temperatureC })
+    .from(schema.part)
+    .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .innerJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
+    .where(inArray(schema.part.id, ids));
+  const fitOf = new Map(rows.map((r) => [r.partId, r]));
+  const base = `${label}-set${setNo}`.replace(/[^A-Za-z0-9_-]/g, '_');
+  const channel = result.device_type.channel;
+  if (format === 'spice') {
+    const lines = [
+      `* Sluice matched set ${setNo} of ${label}: ${result.device_type.name}, ${result.shape.replace(/_/g, ' ')}`,
+      `* matched at ${describeOperatingPoint(result.operating_point)}; |dVGS| = ${set.dvgs_v} V, gm mismatch = ${set.gm_mismatch}, IDSS mismatch = ${set.idss_mismatch}`,
+    ];
+    for (const p of set.parts) {
+      const f = fitOf.get(p.part_id);
+      if (!f) {
+        lines.push(`* ${p.serial}: no current fit on record`);
+        continue;
+      }
+      lines.push(`* ${p.serial}, role ${p.role}${p.cascode_index !== undefined ? ` of cascode ${p.cascode_index + 1}` : ''}, fit ${f.fit.id} (${f.fit.engineVersion})`);
+      lines.push(
+        formatModelCard({
+          serial: p.serial,
+          channel,
+          params: { vtoV: f.fit.vtoV, betaAPerV2: f.fit.betaAPerV2, lambdaPerV: f.fit.lambdaPerV, rsOhm: f.fit.rsOhm, rdOhm: f.fit.rdOhm },
+          temperatureC: f.temperatureC,
+        }),
+      );
+    }
+    return { filename: `${base}.lib`, contentType: 'text/plain; charset=utf-8', body: lines.join('\n') + '\n' };
+  }
+  const out = [CSV_COLUMNS.join(',')];
+  for (const p of set.parts) {
+    const f = fitOf.get(p.part_id);
+    const row = [
+      setNo, p.role, p.cascode_index !== undefined ? p.cascode_index + 1 : '', p.serial, p.lot, p.bin_code, p.location,
+      channel === 'n' ? p.id_a : -p.id_a, channel === 'n' ? p.vds_v : -p.vds_v, p.vgs_v, p.gm_s, p.idss_a, p.vds_sat_v,
+      f?.fit.vtoV, f?.fit.betaAPerV2, f?.fit.lambdaPerV, f?.fit.rsOhm, f?.fit.rdOhm, f?.temperatureC,
+      set.dvgs_v, set.gm_mismatch, set.idss_mismatch, set.cascode_headroom_v,
+    ];
+    out.push(row.map(csvCell).join(','));
+  }
+  return { filename: `${base}.csv`, contentType: 'text/csv; charset=utf-8', body: out.join('\r\n') + '\r\n' };
+}
+
+export async function exportReservationSet({
+  actor,
+  id,
+  setNo,
+  format,
+}: {
+  actor: Actor | null;
+  id: string;
+  setNo: number;
+  format: SetExportFormat;
+}): Promise<ExportFile> {
+  requirePermission(actor, 'match:request');
+  const view = await loadOwnReservation(getDb(), actor, id);
+  if (!view.proposal_id) throw new AppError('not_found', `Reservation ${view.code} has no stored match figures to export.`);
+  const proposal = await loadOwnProposal(getDb(), actor, view.proposal_id);
+  return exportSet(proposal.result as StoredProposalResult, setNo, reservationCode(view.id), format);
+}
+
+export async function exportProposalSet({
+  actor,
+  id,
+  setNo,
+  format,
+}: {
+  actor: Actor | null;
+  id: string;
+  setNo: number;
+  format: SetExportFormat;
+}): Promise<ExportFile> {
+  requirePermission(actor, 'match:request');
+  const proposal = await loadOwnProposal(getDb(), actor, id);
+  return exportSet(proposal.result as StoredProposalResult, setNo, `proposal-${proposal.id.slice(0, 8)}`, format);
+}

@@ -1,0 +1,24 @@
+import { z } from 'zod';
+import { getDb, type DbOrTx } from '../../../../db/client';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { expireDueReservations } from './expire';
+import { loadReservationView, type ReservationView } from './reservation-view';
+
+const ReservationId = z.uuid();
+
+/** The actor's own reservation, or not_found (another designer's looks absent). */
+export async function loadOwnReservation(db: DbOrTx, actor: Actor, id: string): Promise<ReservationView> {
+  const parsed = ReservationId.safeParse(id);
+  const view = parsed.success ? await loadReservationView(db, parsed.data) : null;
+  if (!view || view.designer.id !== actor.userId) {
+    throw new AppError('not_found', `There is no reservation ${id} of yours. Your reservations are listed at /reservations.`);
+  }
+  return view;
+}
+
+export async function getReservation({ actor, id }: { actor: Actor | null; id: string }): Promise<ReservationView> {
+  requirePermission(actor, 'match:request');
+  await expireDueReservations();
+  return loadOwnReservation(getDb(), actor, id);
+}

@@ -1,0 +1,10 @@
+import { endpoint } from '../../../../../../lib/server/http';
+import { exportReservationSet } from '../../../../../../lib/server/services/reservations/export-set';
+
+/** GET: a CSV of one set's figures (set numbers from 1), as a download. */
+export const GET = endpoint(async ({ params }, actor) => {
+  const file = await exportReservationSet({ actor, id: params.id!, setNo: Number(params.set), format: 'csv' });
+  return new Response(file.body, {
+    headers: { 'content-type': file.contentType, 'content-disposition': `attachment; filename="${file.filename}"` },
+  });
+});

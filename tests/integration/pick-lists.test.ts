@@ -1,0 +1,123 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { inArray } from 'drizzle-orm';
+import { closeDb, getDb, schema } from '../../src/db/client';
+import { signIn, type Session } from '../helpers/http';
+import { waitForMail } from '../helpers/mail';
+import { insertMatchStock } from './match-fixture';
+
+let designer: Session;
+let stores: Session;
+let inspector: Session;
+
+beforeAll(async () => {
+  [designer, stores, inspector] = await Promise.all([
+    signIn('designer@demo.sluice.test'),
+    signIn('stores@demo.sluice.test'),
+    signIn('inspector@demo.sluice.test'),
+  ]);
+  await insertMatchStock({ typeName: 'MT-PICK', count: 40, seed: 70, serialPrefix: 'MTK' });
+});
+afterAll(async () => {
+  await closeDb();
+});
+
+async function reserve(count: number) {
+  const p = await (
+    await designer.fetch('/api/match/proposals', {
+      method: 'POST',
+      json: { device_type: 'MT-PICK', shape: 'pair', count, id_a: 1e-3, vds_v: 10, max_dvgs_v: 0.03 },
+    })
+  ).json();
+  const res = await designer.fetch(`/api/match/proposals/${p.id}/confirm`, { method: 'POST', json: { purpose: 'pick test' } });
+  expect(res.status).toBe(201);
+  return res.json();
+}
+
+const scan = (id: number, serial: string, line_no?: number, who = stores) =>
+  who.fetch(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial, ...(line_no ? { line_no } : {}) } });
+
+async function statuses(serials: string[]) {
+  const rows = await getDb().select().from(schema.part).where(inArray(schema.part.serial, serials));
+  return new Map(rows.map((r) => [r.serial, r]));
+}
+
+describe('pick lists', () => {
+  it('stores scan every line, wrong serials are refused saying why, the last scan issues the parts and mails the designer', async () => {
+    const out = await reserve(2);
+    const list = out.pick_list;
+    const lines: { line_no: number; serial: string; set_no: number; role: string; location: string }[] = list.lines;
+    expect(lines).toHaveLength(4);
+    for (const l of lines) {
+      expect(l.set_no).toBeGreaterThanOrEqual(1);
+      expect(['a', 'b']).toContain(l.role);
+    }
+
+    const open = await (await stores.fetch('/api/pick-lists?status=open')).json();
+    expect(open.pick_lists.some((x: { id: number }) => x.id === list.id)).toBe(true);
+
+    // Role rules: designers and inspectors cannot fulfil; inspectors cannot even read.
+    expect((await scan(list.id, lines[0]!.serial, 1, designer)).status).toBe(403);
+    expect((await scan(list.id, lines[0]!.serial, 1, inspector)).status).toBe(403);
+    expect((await inspector.fetch(`/api/pick-lists/${list.id}`)).status).toBe(403);
+    expect((await designer.fetch(`/api/pick-lists/${list.id}`)).status).toBe(200); // their own list, read-only
+
+    const refused = async (serial: string, lineNo: number | undefined, refusal: string, message: RegExp) => {
+      const res = await scan(list.id, serial, lineNo);
+      expect(res.status).toBe(409);
+      const body = await res.json();
+      expect(body.error.refusal).toBe(refusal);
+      expect(body.error.message).toMatch(message);
+    };
+    await refused('NO-SUCH-SERIAL', 1, 'not_on_list', /NO-SUCH-SERIAL is not on pick list PL-\d+\. No part has that serial/);
+    const outsider = Array.from({ length: 40 }, (_, i) => `MTK-${String(i + 1).padStart(4, '0')}`).find((s) => !lines.some((l) => l.serial === s))!;
+    await refused(outsider, 1, 'not_on_list', new RegExp(`${outsider} is not on pick list PL-\\d+\\. That part is in stock at MTK drawer`));
+    await refused(lines[1]!.serial, 1, 'other_line', new RegExp(`belongs to line 2.*not line 1\\. Line 1 wants ${lines[0]!.serial}`));
+
+    const ok = await scan(list.id, `  ${lines[0]!.serial} `, 1); // scanners may add spaces
+    expect(ok.status).toBe(200);
+    expect((await ok.json()).complete).toBe(false);
+    await refused(lines[0]!.serial, 2, 'already_picked', /already picked \(line 1/);
+
+    for (const l of lines.slice(1, -1)) expect((await scan(list.id, l.serial, l.line_no)).status).toBe(200);
+    const last = await (await scan(list.id, lines.at(-1)!.serial, lines.at(-1)!.line_no)).json();
+    expect(last.complete).toBe(true);
+    expect(last.issued.sort()).toEqual(lines.map((l) => l.serial).sort());
+    expect(last.mailed_to).toBe('designer@demo.sluice.test');
+    expect(last.pick_list.status).toBe('complete');
+
+    const parts = await statuses(lines.map((l) => l.serial));
+    for (const p of parts.values()) {
+      expect(p.status).toBe('issued');
+      expect(p.reservationId).toBe(out.reservation.id);
+    }
+    const view = await (await designer.fetch(`/api/reservations/${out.reservation.id}`)).json();
+    expect(view.status).toBe('issued');
+    const mail = await waitForMail('designer@demo.sluice.test', new RegExp(`issued \\(reservation ${out.reservation.code}\\)`));
+    for (const l of lines) expect(mail.text).toContain(l.serial);
+    await refused(lines[0]!.serial, undefined, 'list_closed', /is complete/);
+
+    // Later, stores take two parts back: issued → returned → in stock, at the place they came from.
+    const back = await stores.fetch(`/api/pick-lists/${list.id}/returns`, { method: 'POST', json: { serials: [lines[0]!.serial, lines[1]!.serial] } });
+    expect(back.status).toBe(200);
+    const after = await statuses([lines[0]!.serial, lines[1]!.serial]);
+    for (const [serial, p] of after) {
+      expect(p.status).toBe('in_stock');
+      expect(p.reservationId).toBeNull();
+      const [loc] = await getDb().select().from(schema.location).where(inArray(schema.location.id, [p.locationId!]));
+      expect(loc!.name).toBe(lines.find((l) => l.serial === serial)!.location);
+    }
+    const audit = await getDb().select().from(schema.auditLog).where(inArray(schema.auditLog.subjectId, [lines[0]!.serial]));
+    expect(audit.map((a) => a.action)).toEqual(expect.arrayContaining(['part.reserve', 'pick_line.pick', 'part.issue', 'part.return', 'part.restock']));
+    const twice = await stores.fetch(`/api/pick-lists/${list.id}/returns`, { method: 'POST', json: { serials: [lines[0]!.serial] } });
+    expect(twice.status).toBe(409);
+    expect((await twice.json()).error.message).toMatch(/in stock, not issued/);
+  });
+
+  it('a cancelled reservation closes its list to scanning', async () => {
+    const out = await reserve(1);
+    await designer.fetch(`/api/reservations/${out.reservation.id}/cancel`, { method: 'POST', json: {} });
+    const res = await scan(out.pick_list.id, out.pick_list.lines[0].serial, 1);
+    expect(res.status).toBe(409);
+    expect((await res.json()).error.message).toMatch(/is cancelled.*Put any parts/);
+  });
+});
