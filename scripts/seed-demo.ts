@@ -3,11 +3,15 @@
 import { closeDb } from '../src/db/client';
 import { DEFAULT_DEMO_PASSWORD, seedDemoPeople } from '../src/lib/server/demo/people';
 import { seedDemoDeviceTypes } from '../src/lib/server/demo/device-types';
+import { seedDemoLots } from '../src/lib/server/demo/lots';
+import { seedDemoStock } from '../src/lib/server/demo/stock';
 
 const password = process.env.SLUICE_DEMO_PASSWORD ?? DEFAULT_DEMO_PASSWORD;
 try {
   const people = await seedDemoPeople(password);
   await seedDemoDeviceTypes();
+  await seedDemoLots();
+  await seedDemoStock();
   console.log(`[sluice] demo scenario loaded (${people} new accounts)`);
 } finally {
   await closeDb();

@@ -18,7 +18,18 @@ export function getBoss(): Promise<PgBoss> {
     const b = new PgBoss({ connectionString: serverEnv().databaseUrl, max: 4 });
     b.on('error', (err) => console.error('[jobs]', err));
     await b.start();
-    for (const name of Object.values(QUEUES)) await b.createQueue(name);
+    // Only missing queues are created: createQueue takes locks that can deadlock with another
+    // process starting at the same time (then wait and look again).
+    for (const name of Object.values(QUEUES)) {
+      for (let attempt = 1; !(await b.getQueue(name)); attempt++) {
+        try {
+          await b.createQueue(name);
+        } catch (err) {
+          if ((err as { code?: string }).code !== '40P01' || attempt >= 5) throw err;
+          await new Promise((r) => setTimeout(r, 100 * attempt));
+        }
+      }
+    }
     boss = b;
     return b;
   })();

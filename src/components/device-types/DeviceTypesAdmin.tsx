@@ -1,0 +1,154 @@
+import { useState, type FormEvent } from 'react';
+import { formatQuantity } from '../../core/units/format-quantity';
+import { apiFetch, useApi } from '../ui/api-client';
+import { Empty, ErrorNotice, Loading } from '../ui/states';
+
+interface DeviceTypeRow {
+  id: number;
+  name: string;
+  channel: 'n' | 'p';
+  description: string;
+  vds_test_v: number;
+  nominal_temperature_c: number;
+  idss_min_a: number | null;
+  idss_max_a: number | null;
+  vp_min_v: number | null;
+  vp_max_v: number | null;
+}
+
+const num = (v: FormDataEntryValue | null) => {
+  const s = String(v ?? '').trim().replace(',', '.');
+  return s === '' ? null : Number(s);
+};
+const mA = (v: FormDataEntryValue | null) => {
+  const n = num(v);
+  return n === null ? null : n / 1000;
+};
+
+function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeRow; onSaved: (msg: string) => void; onCancel?: () => void }) {
+  const [error, setError] = useState<string>();
+  const [channel, setChannel] = useState<'n' | 'p'>(initial?.channel ?? 'n');
+  async function submit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    const form = e.currentTarget;
+    const f = new FormData(form);
+    const body = {
+      name: String(f.get('name') ?? ''),
+      channel,
+      description: String(f.get('description') ?? ''),
+      vds_test_v: num(f.get('vds_test_v')),
+      nominal_temperature_c: num(f.get('nominal_temperature_c')) ?? 25,
+      idss_min_a: mA(f.get('idss_min_ma')),
+      idss_max_a: mA(f.get('idss_max_ma')),
+      vp_min_v: num(f.get('vp_min_v')),
+      vp_max_v: num(f.get('vp_max_v')),
+    };
+    try {
+      if (initial) await apiFetch(`/api/admin/device-types/${initial.id}`, { method: 'PUT', json: body });
+      else await apiFetch('/api/admin/device-types', { method: 'POST', json: body });
+      setError(undefined);
+      if (!initial) form.reset();
+      onSaved(`${body.name} saved.`);
+    } catch (err) {
+      setError((err as Error).message);
+    }
+  }
+  const p = initial ? `edit-${initial.id}` : 'new';
+  const v = (x: number | null | undefined, scale = 1) => (x === null || x === undefined ? '' : String(Number((x * scale).toPrecision(6))));
+  return (
+    <form onSubmit={submit} className="card grid gap-3 md:grid-cols-4" aria-label={initial ? `Edit ${initial.name}` : 'New device type'}>
+      <div>
+        <label className="field" htmlFor={`${p}-name`}>Name</label>
+        <input className="input" id={`${p}-name`} name="name" required defaultValue={initial?.name} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-channel`}>Channel</label>
+        <select className="input" id={`${p}-channel`} value={channel} onChange={(e) => setChannel(e.target.value as 'n' | 'p')}>
+          <option value="n">N-channel</option>
+          <option value="p">P-channel</option>
+        </select>
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-vds`}>IDSS test |VDS| (V)</label>
+        <input className="input" id={`${p}-vds`} name="vds_test_v" required inputMode="decimal" defaultValue={v(initial?.vds_test_v ?? 10)} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-temp`}>Nominal temperature (°C)</label>
+        <input className="input" id={`${p}-temp`} name="nominal_temperature_c" inputMode="decimal" defaultValue={v(initial?.nominal_temperature_c ?? 25)} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-idss-min`}>IDSS min (mA)</label>
+        <input className="input" id={`${p}-idss-min`} name="idss_min_ma" inputMode="decimal" defaultValue={v(initial?.idss_min_a, 1000)} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-idss-max`}>IDSS max (mA)</label>
+        <input className="input" id={`${p}-idss-max`} name="idss_max_ma" inputMode="decimal" defaultValue={v(initial?.idss_max_a, 1000)} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-vp-min`}>VP min (V, datasheet sign)</label>
+        <input className="input" id={`${p}-vp-min`} name="vp_min_v" inputMode="decimal" defaultValue={v(initial?.vp_min_v)} placeholder={channel === 'n' ? 'e.g. -4' : 'e.g. 0.6'} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-vp-max`}>VP max (V, datasheet sign)</label>
+        <input className="input" id={`${p}-vp-max`} name="vp_max_v" inputMode="decimal" defaultValue={v(initial?.vp_max_v)} placeholder={channel === 'n' ? 'e.g. -0.6' : 'e.g. 4'} />
+      </div>
+      <div className="md:col-span-3">
+        <label className="field" htmlFor={`${p}-desc`}>Description</label>
+        <input className="input" id={`${p}-desc`} name="description" defaultValue={initial?.description} />
+      </div>
+      <div className="flex items-end gap-2">
+        <button className="btn-primary" type="submit">{initial ? 'Save' : 'Add type'}</button>
+        {onCancel && <button className="btn-quiet" type="button" onClick={onCancel}>Cancel</button>}
+      </div>
+      {error && <p className="notice-error md:col-span-4" role="alert">{error}</p>}
+    </form>
+  );
+}
+
+const limits = (lo: number | null, hi: number | null, unit: 'A' | 'V') =>
+  lo === null && hi === null ? '—' : `${lo === null ? '…' : formatQuantity(lo, unit, 2)} to ${hi === null ? '…' : formatQuantity(hi, unit, 2)}`;
+
+/** Device types: the channel, IDSS test VDS, nominal temperature and spec limits fitting uses. */
+export default function DeviceTypesAdmin() {
+  const { data, error, loading, reload } = useApi<{ device_types: DeviceTypeRow[] }>('/api/admin/device-types');
+  const [editing, setEditing] = useState<number | null>(null);
+  const [message, setMessage] = useState<string>();
+  const saved = (msg: string) => {
+    setMessage(msg);
+    setEditing(null);
+    reload();
+  };
+  return (
+    <div className="space-y-5">
+      <TypeForm onSaved={saved} />
+      {message && <p className="notice-info" role="status">{message}</p>}
+      {loading && !data && <Loading what="device types" />}
+      {error && <ErrorNotice error={error} retry={reload} />}
+      {data && data.device_types.length === 0 && <Empty>No device types yet.</Empty>}
+      {data && data.device_types.length > 0 && (
+        <table className="table-plain bg-paper-raised">
+          <thead>
+            <tr><th>Type</th><th>Channel</th><th className="text-right">Test |VDS|</th><th className="text-right">Nominal</th><th>IDSS limits</th><th>VP limits</th><th></th></tr>
+          </thead>
+          <tbody>
+            {data.device_types.map((t) =>
+              editing === t.id ? (
+                <tr key={t.id}><td colSpan={7}><TypeForm initial={t} onSaved={saved} onCancel={() => setEditing(null)} /></td></tr>
+              ) : (
+                <tr key={t.id} data-testid={`type-${t.name}`}>
+                  <td><div className="font-semibold">{t.name}</div><div className="text-xs text-ink-faint">{t.description}</div></td>
+                  <td>{t.channel.toUpperCase()} ({t.channel === 'n' ? 'NJF' : 'PJF'})</td>
+                  <td className="num">{t.vds_test_v} V</td>
+                  <td className="num">{t.nominal_temperature_c} °C</td>
+                  <td>{limits(t.idss_min_a, t.idss_max_a, 'A')}</td>
+                  <td>{limits(t.vp_min_v, t.vp_max_v, 'V')}</td>
+                  <td className="text-right"><button type="button" className="btn-quiet" onClick={() => setEditing(t.id)}>Edit</button></td>
+                </tr>
+              ),
+            )}
+          </tbody>
+        </table>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,83 @@
+import { useState } from 'react';
+import { percent, q, when } from '../parts/figures';
+import { flagWord } from '../parts/part-types';
+import { useApi } from '../ui/api-client';
+import { Empty, ErrorNotice, Loading } from '../ui/states';
+
+interface QueueItem {
+  serial: string;
+  device_type: string;
+  lot: string | null;
+  fit_id: number | null;
+  fitted_at: string | null;
+  file_name: string | null;
+  idss_a: number | null;
+  vp_v: number | null;
+  rms_rel: number | null;
+  flags: { code: string; message: string }[];
+  review_note: string | null;
+}
+
+/** Parts waiting for an inspector (or for a retest), oldest first, flags in plain words. */
+export default function ReviewQueue() {
+  const [status, setStatus] = useState<'needs_review' | 'retest'>('needs_review');
+  const { data, error, loading, reload } = useApi<{ total: number; items: QueueItem[] }>(`/api/review?status=${status}`);
+  return (
+    <div className="space-y-4">
+      <div className="flex items-center gap-2" role="tablist" aria-label="Which parts">
+        {(['needs_review', 'retest'] as const).map((s) => (
+          <button key={s} type="button" role="tab" aria-selected={status === s} className={status === s ? 'btn-primary' : 'btn-quiet'} onClick={() => setStatus(s)}>
+            {s === 'needs_review' ? 'Waiting for review' : 'Marked for retest'}
+          </button>
+        ))}
+        {data && <span className="ml-2 text-sm text-ink-soft">{data.total} part{data.total === 1 ? '' : 's'}</span>}
+      </div>
+      {loading && !data && <Loading what="the review queue" />}
+      {error && <ErrorNotice error={error} retry={reload} />}
+      {data && data.items.length === 0 && (
+        <Empty>{status === 'needs_review' ? 'Nothing is waiting for review: every fit so far was clean or has been decided.' : 'No parts are waiting for a retest.'}</Empty>
+      )}
+      {data && data.items.length > 0 && (
+        <table className="table-plain bg-paper-raised" aria-label="Review queue">
+          <thead>
+            <tr>
+              <th>Serial</th>
+              <th>Type · lot</th>
+              <th>Why it is here</th>
+              <th className="text-right">IDSS</th>
+              <th className="text-right">VP</th>
+              <th className="text-right">RMS / IDSS</th>
+              <th>Fitted</th>
+            </tr>
+          </thead>
+          <tbody>
+            {data.items.map((it) => (
+              <tr key={it.serial} data-testid={`queue-${it.serial}`}>
+                <td className="font-mono">
+                  <a href={status === 'needs_review' ? `/review/${encodeURIComponent(it.serial)}` : `/parts/${encodeURIComponent(it.serial)}`}>{it.serial}</a>
+                </td>
+                <td>
+                  {it.device_type}
+                  {it.lot ? <span className="text-ink-faint"> · {it.lot}</span> : null}
+                </td>
+                <td className="max-w-xl">
+                  {it.flags.length === 0 && <span className="text-ink-soft">{it.review_note ?? 'clean fit; the part was already in stock or returned, so a person confirms it'}</span>}
+                  {it.flags.map((f) => (
+                    <div key={f.code}>
+                      <span className="tag-review mr-1">{flagWord(f.code)}</span>
+                      <span className="text-xs text-ink-soft">{f.message}</span>
+                    </div>
+                  ))}
+                </td>
+                <td className="num">{q(it.idss_a, 'A', 2)}</td>
+                <td className="num">{q(it.vp_v, 'V', 2)}</td>
+                <td className="num">{percent(it.rms_rel)}</td>
+                <td className="whitespace-nowrap text-xs">{when(it.fitted_at)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,18 @@
+import { eq } from 'drizzle-orm';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
+
+export async function createDeviceType({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'deviceTypes:manage');
+  const data = DeviceTypeInput.parse(input);
+  return getDb().transaction(async (tx) => {
+    const existing = await tx.select({ id: schema.deviceType.id }).from(schema.deviceType).where(eq(schema.deviceType.name, data.name));
+    if (existing.length) throw new AppError('conflict', `A device type named ${data.name} already exists; edit it instead.`);
+    const [row] = await tx.insert(schema.deviceType).values(toColumns(data)).returning();
+    await writeAudit(tx, actor, { action: 'device_type.create', subjectType: 'device_type', subjectId: row.id, after: data });
+    return toDeviceTypeRow(row);
+  });
+}

@@ -1,0 +1,35 @@
+import { and, count, eq, ne } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
+
+/**
+ * Edits a device type. The channel cannot change once parts of the type exist: their sweeps
+ * were read with it. A new test VDS applies to fits made from then on.
+ */
+export async function updateDeviceType({ actor, id, input }: { actor: Actor | null; id: unknown; input: unknown }) {
+  requirePermission(actor, 'deviceTypes:manage');
+  const typeId = z.coerce.number().int().positive().parse(id);
+  const data = DeviceTypeInput.parse(input);
+  return getDb().transaction(async (tx) => {
+    const [before] = await tx.select().from(schema.deviceType).where(eq(schema.deviceType.id, typeId)).for('update');
+    if (!before) throw new AppError('not_found', `No device type with id ${typeId}.`);
+    const clash = await tx
+      .select({ id: schema.deviceType.id })
+      .from(schema.deviceType)
+      .where(and(eq(schema.deviceType.name, data.name), ne(schema.deviceType.id, typeId)));
+    if (clash.length) throw new AppError('conflict', `Another device type is already named ${data.name}.`);
+    if (data.channel !== before.channel) {
+      const [{ n }] = await tx.select({ n: count() }).from(schema.part).where(eq(schema.part.deviceTypeId, typeId));
+      if (n > 0) {
+        throw new AppError('conflict', `${before.name} has ${n} parts measured as ${before.channel.toUpperCase()}-channel; its channel cannot change. Create a new type instead.`);
+      }
+    }
+    const [row] = await tx.update(schema.deviceType).set(toColumns(data)).where(eq(schema.deviceType.id, typeId)).returning();
+    await writeAudit(tx, actor, { action: 'device_type.update', subjectType: 'device_type', subjectId: typeId, before: toDeviceTypeRow(before), after: toDeviceTypeRow(row) });
+    return toDeviceTypeRow(row);
+  });
+}

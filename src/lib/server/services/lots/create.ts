@@ -1,0 +1,35 @@
+import { eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+
+export const CreateLotInput = z.object({
+  code: z.string().trim().min(1, 'must not be empty').max(60, 'must be at most 60 characters'),
+  device_type: z.string().trim().min(1, 'name the device type of the lot'),
+  supplier: z.string().trim().max(120).default(''),
+  notes: z.string().trim().max(1000).default(''),
+  received_at: z.coerce.date().optional(),
+});
+export type CreateLotInput = z.infer<typeof CreateLotInput>;
+
+export async function createLot({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'lots:create');
+  const data = CreateLotInput.parse(input);
+  return getDb().transaction(async (tx) => {
+    const [type] = await tx.select().from(schema.deviceType).where(eq(schema.deviceType.name, data.device_type));
+    if (!type) {
+      const known = await tx.select({ name: schema.deviceType.name }).from(schema.deviceType);
+      throw new AppError('invalid_input', `Device type ${data.device_type} is not known. Known types: ${known.map((k) => k.name).join(', ') || 'none'}.`);
+    }
+    const clash = await tx.select({ id: schema.lot.id }).from(schema.lot).where(eq(schema.lot.code, data.code));
+    if (clash.length) throw new AppError('conflict', `Lot ${data.code} already exists.`);
+    const [row] = await tx
+      .insert(schema.lot)
+      .values({ code: data.code, deviceTypeId: type.id, supplier: data.supplier, notes: data.notes, receivedAt: data.received_at ?? new Date(), createdBy: actor.userId })
+      .returning();
+    await writeAudit(tx, actor, { action: 'lot.create', subjectType: 'lot', subjectId: data.code, after: { device_type: type.name, supplier: data.supplier } });
+    return { id: row.id, code: row.code, device_type: type.name, supplier: row.supplier, notes: row.notes, received_at: row.receivedAt.toISOString() };
+  });
+}

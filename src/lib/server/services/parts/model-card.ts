@@ -1,0 +1,38 @@
+import { eq } from 'drizzle-orm';
+import { formatModelCard, modelCardName } from '../../../../core/fit/model-card';
+import { getDb, schema } from '../../../../db/client';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+
+/**
+ * The part's SPICE .model card from its current fit, with comment lines saying where it came
+ * from, and a file name for the download.
+ */
+export async function getPartModelCard({ actor, serial }: { actor: Actor | null; serial: string }) {
+  requirePermission(actor, 'parts:read');
+  const db = getDb();
+  const [row] = await db
+    .select({ part: schema.part, type: schema.deviceType, fit: schema.fit, sweep: schema.sweep })
+    .from(schema.part)
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+    .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
+    .where(eq(schema.part.serial, serial));
+  if (!row) throw new AppError('not_found', `No part with serial ${serial}.`);
+  if (!row.fit) throw new AppError('not_found', `Part ${serial} has no fit yet, so it has no model card.`);
+  const { part, type, fit, sweep } = row;
+  const card = formatModelCard({
+    serial: part.serial,
+    channel: type.channel,
+    params: { vtoV: fit.vtoV, betaAPerV2: fit.betaAPerV2, lambdaPerV: fit.lambdaPerV, rsOhm: fit.rsOhm, rdOhm: fit.rdOhm },
+    temperatureC: sweep?.temperatureC ?? null,
+  });
+  const lines = [
+    `* ${part.serial} (${type.name}, ${type.channel.toUpperCase()}-channel), SPICE level-1 JFET fitted by Sluice`,
+    `* fit ${fit.id} of ${fit.createdAt.toISOString()}, model ${fit.model}, ${fit.engineVersion}`,
+    `* status at download: ${part.status}${fit.flags.length ? `; flags: ${fit.flags.join(', ')}` : ''}`,
+    card,
+    '',
+  ];
+  return { text: lines.join('\n'), fileName: `${modelCardName(part.serial)}.lib` };
+}

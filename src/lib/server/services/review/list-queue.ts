@@ -1,0 +1,50 @@
+import { asc, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import type { FitResult } from '../../../../core/fit/definitions';
+import { getDb, schema } from '../../../../db/client';
+import { requirePermission, type Actor } from '../../identity';
+
+export const ReviewQueueInput = z.object({
+  status: z.enum(['needs_review', 'retest']).default('needs_review'),
+  limit: z.coerce.number().int().min(1).max(500).default(200),
+});
+
+/** Parts waiting for a person, oldest fit first, with their flags in plain words. */
+export async function listReviewQueue({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'fits:review');
+  const f = ReviewQueueInput.parse(input ?? {});
+  const db = getDb();
+  const rows = await db
+    .select({ part: schema.part, type: schema.deviceType, lot: schema.lot, fit: schema.fit, fileName: schema.uploadFile.originalName })
+    .from(schema.part)
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+    .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
+    .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
+    .leftJoin(schema.uploadFile, eq(schema.uploadFile.id, schema.sweep.uploadFileId))
+    .where(eq(schema.part.status, f.status))
+    .orderBy(asc(schema.fit.createdAt), asc(schema.part.serial))
+    .limit(f.limit);
+  const [{ total }] = await db
+    .select({ total: sql<number>`count(*)::int` })
+    .from(schema.part)
+    .where(eq(schema.part.status, f.status));
+  return {
+    status: f.status,
+    total,
+    items: rows.map(({ part, type, lot, fit, fileName }) => ({
+      serial: part.serial,
+      device_type: type.name,
+      channel: type.channel,
+      lot: lot?.code ?? null,
+      fit_id: fit?.id ?? null,
+      fitted_at: fit?.createdAt.toISOString() ?? null,
+      file_name: fileName,
+      idss_a: fit?.idssA ?? null,
+      vp_v: fit?.vpV ?? null,
+      rms_rel: fit && Number.isFinite(fit.rmsRel) ? fit.rmsRel : null,
+      flags: fit ? ((fit.detail as FitResult).flags ?? []).map((x) => ({ code: x.code, message: x.message })) : [],
+      review_note: fit?.reviewNote ?? null,
+    })),
+  };
+}

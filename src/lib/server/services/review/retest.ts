@@ -1,0 +1,23 @@
+import { eq } from 'drizzle-orm';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { requirePermission, type Actor } from '../../identity';
+import { changePartStatuses } from '../parts/change-status';
+import { loadReviewTarget } from './load-target';
+import { ReviewTarget } from './schemas';
+
+/** Sends the part back to be measured again; its next sweep takes it out of `retest`. */
+export async function markForRetest({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'fits:review');
+  const data = ReviewTarget.parse(input);
+  return getDb().transaction(async (tx) => {
+    const { part, fit } = await loadReviewTarget(tx, data.serial, data.fit_id);
+    await tx
+      .update(schema.fit)
+      .set({ review: 'retest', reviewedBy: actor.userId, reviewedAt: new Date(), reviewNote: data.note ?? null })
+      .where(eq(schema.fit.id, fit.id));
+    await writeAudit(tx, actor, { action: 'fit.retest', subjectType: 'part', subjectId: part.serial, before: { fit_id: fit.id, review: fit.review }, after: { review: 'retest' }, reason: data.note });
+    await changePartStatuses(tx, actor, [{ partId: part.id, to: 'retest' }], { action: 'part.review_retest', reason: data.note ?? 'marked for retest on review' });
+    return { serial: part.serial, status: 'retest' as const, fit_id: fit.id };
+  });
+}

@@ -1,0 +1,31 @@
+import { randomBytes, randomUUID } from 'node:crypto';
+import { z } from 'zod';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { hashStationToken, requirePermission, type Actor } from '../../identity';
+
+export const CreateStationInput = z.object({
+  name: z.string().trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),
+});
+export type CreateStationInput = z.infer<typeof CreateStationInput>;
+
+/**
+ * Makes a test-station token. The token itself is returned once, here, and never stored:
+ * the database keeps its SHA-256 and a short prefix to recognise it by.
+ */
+export async function createStationToken({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'stations:manage');
+  const data = CreateStationInput.parse(input);
+  const token = `sls_${randomBytes(24).toString('base64url')}`;
+  const id = randomUUID();
+  const tokenPrefix = token.slice(0, 10);
+  const row = await getDb().transaction(async (tx) => {
+    const [created] = await tx
+      .insert(schema.stationToken)
+      .values({ id, name: data.name, tokenSha256: hashStationToken(token), tokenPrefix, createdBy: actor.userId })
+      .returning();
+    await writeAudit(tx, actor, { action: 'station.create', subjectType: 'station', subjectId: id, after: { name: data.name, token_prefix: tokenPrefix } });
+    return created;
+  });
+  return { id: row.id, name: row.name, token, token_prefix: tokenPrefix, created_at: row.createdAt.toISOString() };
+}

@@ -1,0 +1,23 @@
+import { eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+
+export const RevokeStationInput = z.object({ id: z.string().min(1) });
+
+/** Revokes a token at once: the middleware refuses it from the next request on. */
+export async function revokeStationToken({ actor, input }: { actor: Actor | null; input: unknown }) {
+  requirePermission(actor, 'stations:manage');
+  const { id } = RevokeStationInput.parse(input);
+  return getDb().transaction(async (tx) => {
+    const [row] = await tx.select().from(schema.stationToken).where(eq(schema.stationToken.id, id)).for('update');
+    if (!row) throw new AppError('not_found', 'No station token with that id; it may have been removed.');
+    if (row.revokedAt) return { id, revoked_at: row.revokedAt.toISOString() };
+    const revokedAt = new Date();
+    await tx.update(schema.stationToken).set({ revokedAt }).where(eq(schema.stationToken.id, id));
+    await writeAudit(tx, actor, { action: 'station.revoke', subjectType: 'station', subjectId: id, before: { revoked: false }, after: { revoked: true } });
+    return { id, revoked_at: revokedAt.toISOString() };
+  });
+}

@@ -1,0 +1,57 @@
+import { asc, eq, inArray } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, schema } from '../../../../db/client';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+
+export interface UploadFileStatus {
+  id: number;
+  name: string;
+  size_bytes: number;
+  sha256: string;
+  state: 'queued' | 'fitted' | 'needs_review' | 'rejected';
+  reason: string | null;
+  error_code: string | null;
+  serials: string[];
+  /** The earlier file with the same bytes; state, reason and serials are that file's. */
+  duplicate_of: { file_id: number; upload_id: string; name: string } | null;
+  finished_at: string | null;
+}
+
+/**
+ * One upload and the state of each of its files. People who may upload see any upload; a
+ * test station sees only its own.
+ */
+export async function getUpload({ actor, id }: { actor: Actor | null; id: unknown }) {
+  requirePermission(actor, 'sweeps:upload');
+  const uploadId = z.string().uuid('must be an upload id').parse(id);
+  const db = getDb();
+  const [upload] = await db.select().from(schema.upload).where(eq(schema.upload.id, uploadId));
+  if (!upload || (actor.stationId && upload.stationTokenId !== actor.stationId)) {
+    throw new AppError('not_found', `No upload ${uploadId}. Check the id that POST /api/sweeps returned.`);
+  }
+  const files = await db.select().from(schema.uploadFile).where(eq(schema.uploadFile.uploadId, uploadId)).orderBy(asc(schema.uploadFile.id));
+  const originalIds = [...new Set(files.map((f) => f.duplicateOfId).filter((x): x is number => x !== null))];
+  const originals = originalIds.length ? await db.select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, originalIds)) : [];
+  const byId = new Map(originals.map((o) => [o.id, o]));
+
+  const out: UploadFileStatus[] = files.map((f) => {
+    const o = f.duplicateOfId !== null ? byId.get(f.duplicateOfId) : undefined;
+    const src = o ?? f;
+    return {
+      id: f.id,
+      name: f.originalName,
+      size_bytes: f.sizeBytes,
+      sha256: f.sha256,
+      state: src.state,
+      reason: src.reason,
+      error_code: src.errorCode,
+      serials: src.serials,
+      duplicate_of: o ? { file_id: o.id, upload_id: o.uploadId, name: o.originalName } : null,
+      finished_at: (src.finishedAt ?? null)?.toISOString() ?? null,
+    };
+  });
+  const counts = { queued: 0, fitted: 0, needs_review: 0, rejected: 0 };
+  for (const f of out) counts[f.state]++;
+  return { upload_id: upload.id, created_at: upload.createdAt.toISOString(), tags: upload.tags, done: counts.queued === 0, counts, files: out };
+}

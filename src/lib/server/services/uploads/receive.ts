@@ -1,0 +1,114 @@
+import { and, inArray, isNull, ne } from 'drizzle-orm';
+import { MAX_SWEEP_FILE_BYTES } from '../../../../core/sweep-file';
+import { getDb, schema } from '../../../../db/client';
+import { writeAudit } from '../../audit';
+import { AppError } from '../../errors';
+import { requirePermission, type Actor } from '../../identity';
+import { getBoss, QUEUES } from '../../jobs/boss';
+import { storeUploadBytes } from '../../storage/uploads-fs';
+import { MAX_FILES_PER_UPLOAD, UploadTags } from './schemas';
+
+export interface IncomingFile {
+  name: string;
+  bytes: Uint8Array;
+}
+
+export interface ReceivedFile {
+  id: number;
+  name: string;
+  state: 'queued' | 'fitted' | 'needs_review' | 'rejected';
+  reason: string | null;
+  duplicate_of: number | null;
+}
+
+const MIB = 1024 * 1024;
+
+/**
+ * Takes one POST of sweep files: keeps every file under uploads/ by SHA-256, records the
+ * upload and its files, and queues one fitting job per new file. Answers before any fitting.
+ * A file whose bytes were already taken (and not rejected) points at the earlier file and
+ * makes no second sweep; an over-size file is rejected at once, naming the limit.
+ */
+export async function receiveSweepUpload({
+  actor,
+  files,
+  tags,
+  queue = true,
+}: {
+  actor: Actor | null;
+  files: IncomingFile[];
+  tags: unknown;
+  /** false: record the files but queue no job (the demo seed then ingests them itself). */
+  queue?: boolean;
+}) {
+  requirePermission(actor, 'sweeps:upload');
+  const parsedTags = UploadTags.parse(tags ?? {});
+  if (files.length === 0) {
+    throw new AppError('invalid_input', 'The request has no files: send multipart/form-data with one or more fields named "file".');
+  }
+  if (files.length > MAX_FILES_PER_UPLOAD) {
+    throw new AppError('too_large', `The request has ${files.length} files; at most ${MAX_FILES_PER_UPLOAD} are taken at once. Send them in several requests.`, { limit_files: MAX_FILES_PER_UPLOAD });
+  }
+
+  const stored = await Promise.all(files.map((f) => storeUploadBytes(f.bytes)));
+  const db = getDb();
+  const shas = [...new Set(stored.map((s) => s.sha256))];
+  const earlier = await db
+    .select({ id: schema.uploadFile.id, sha256: schema.uploadFile.sha256, state: schema.uploadFile.state })
+    .from(schema.uploadFile)
+    .where(and(inArray(schema.uploadFile.sha256, shas), isNull(schema.uploadFile.duplicateOfId), ne(schema.uploadFile.state, 'rejected')))
+    .orderBy(schema.uploadFile.id);
+  const originalBySha = new Map<string, { id: number; state: ReceivedFile['state'] }>();
+  for (const e of earlier) if (!originalBySha.has(e.sha256)) originalBySha.set(e.sha256, { id: e.id, state: e.state });
+
+  const { upload, rows } = await db.transaction(async (tx) => {
+    const [upload] = await tx
+      .insert(schema.upload)
+      .values({ userId: actor.userId, stationTokenId: actor.stationId, tags: parsedTags })
+      .returning();
+    const rows: ReceivedFile[] = [];
+    // Inserted one by one so that the same bytes twice in one request point at the first.
+    for (let i = 0; i < files.length; i++) {
+      const f = files[i];
+      const s = stored[i];
+      const name = f.name.trim() || `file-${i + 1}`;
+      const tooLarge = s.sizeBytes > MAX_SWEEP_FILE_BYTES;
+      const duplicateOf = tooLarge ? undefined : originalBySha.get(s.sha256);
+      const reason = tooLarge
+        ? `${name}: the file is ${s.sizeBytes} bytes, over the limit of ${MAX_SWEEP_FILE_BYTES} bytes (${MAX_SWEEP_FILE_BYTES / MIB} MiB). Expected a file of at most ${MAX_SWEEP_FILE_BYTES / MIB} MiB; split the sweeps into several files.`
+        : null;
+      const [row] = await tx
+        .insert(schema.uploadFile)
+        .values({
+          uploadId: upload.id,
+          originalName: name,
+          sha256: s.sha256,
+          sizeBytes: s.sizeBytes,
+          storedPath: s.storedPath,
+          state: tooLarge ? 'rejected' : 'queued',
+          reason,
+          errorCode: tooLarge ? 'too_large' : null,
+          duplicateOfId: duplicateOf?.id ?? null,
+          finishedAt: tooLarge ? new Date() : null,
+        })
+        .returning({ id: schema.uploadFile.id });
+      if (!tooLarge && duplicateOf === undefined) originalBySha.set(s.sha256, { id: row.id, state: 'queued' });
+      const state = tooLarge ? 'rejected' : (duplicateOf?.state ?? 'queued');
+      rows.push({ id: row.id, name, state, reason, duplicate_of: duplicateOf?.id ?? null });
+    }
+    await writeAudit(tx, actor, {
+      action: 'upload.receive',
+      subjectType: 'upload',
+      subjectId: upload.id,
+      after: { files: rows.length, tags: parsedTags },
+    });
+    return { upload, rows };
+  });
+
+  const toFit = rows.filter((r) => r.reason === null && r.duplicate_of === null);
+  if (toFit.length && queue) {
+    const boss = await getBoss();
+    await boss.insert(toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id }, retryLimit: 3, retryDelay: 5 })));
+  }
+  return { upload_id: upload.id, files: rows };
+}

@@ -1,0 +1,33 @@
+import { AppError } from '../../../lib/server/errors';
+import { endpoint, json } from '../../../lib/server/http';
+import { receiveSweepUpload, type IncomingFile } from '../../../lib/server/services/uploads/receive';
+import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '../../../lib/server/services/uploads/schemas';
+
+/** Multipart upload of sweep files (fields `file`, tags lot/device_type/...). Answers 202 at once. */
+export const POST = endpoint(async ({ request }, actor) => {
+  const type = request.headers.get('content-type') ?? '';
+  if (!type.toLowerCase().startsWith('multipart/form-data')) {
+    throw new AppError('invalid_input', 'Send the sweep files as multipart/form-data, one or more fields named "file".');
+  }
+  const length = Number(request.headers.get('content-length') ?? 0);
+  if (length > MAX_UPLOAD_REQUEST_BYTES) {
+    throw new AppError('too_large', `The request is ${length} bytes; one request may carry at most ${MAX_UPLOAD_REQUEST_BYTES} bytes. Send the files in several requests.`);
+  }
+  let form: FormData;
+  try {
+    form = await request.formData();
+  } catch {
+    throw new AppError('invalid_input', 'The multipart body could not be read; send the files as multipart/form-data fields named "file".');
+  }
+  const files: IncomingFile[] = [];
+  for (const value of form.getAll('file')) {
+    if (typeof value === 'string') continue;
+    files.push({ name: value.name, bytes: new Uint8Array(await value.arrayBuffer()) });
+  }
+  const tags: Record<string, string> = {};
+  for (const key of UPLOAD_TAG_FIELDS) {
+    const v = form.get(key);
+    if (typeof v === 'string') tags[key] = v;
+  }
+  return json(await receiveSweepUpload({ actor, files, tags }), 202);
+});
