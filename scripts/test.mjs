@@ -48,7 +48,7 @@ const env = {
   SMTP_PORT: String(SMTP_PORT),
   SLUICE_MAIL_SINK_DIR: mailDir,
   SLUICE_UPLOADS_DIR: uploadsDir,
-  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: '60',
+  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: '300',
   SLUICE_TEST_BASE_URL: `http://127.0.0.1:${PORT}`,
   SLUICE_DEMO_PASSWORD: 'weir-street-demo',
 };

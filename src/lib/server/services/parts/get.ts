@@ -32,7 +32,9 @@ export function standardErrorsOf(fit: FitRow) {
 }
 
 export function flagDetailsOf(fit: FitRow) {
-  const d = fit.detail as FitResult;
+  const d = fit.detail as Partial<FitResult>;
+  // Rows written without the full result (e.g. imported) still have the flag codes.
+  if (!Array.isArray(d.flags)) return fit.flags.map((code) => ({ code, message: code, excluded_points: [] }));
   return d.flags.map((f) => ({ code: f.code, message: f.message, excluded_points: f.excludedPoints ?? [] }));
 }
 
