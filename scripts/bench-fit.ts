@@ -3,7 +3,9 @@
  * N noisy copies (0.3 % of IDSS, seeded) of the ngspice 9-curve × 61-point family
  * njf-medium are fitted by fitCurveFamily (level-1, as SciPy does) and by
  * /usr/bin/python3 scipy.optimize.least_squares(method='lm') from the same starting values.
- * Prints time per fit and the accuracy of both against the netlist's card.
+ * Prints time per fit and the accuracy of both against the netlist's card, and the time per
+ * fit of extended='auto' on that level-1 family and on noisy copies of the RS/RD card
+ * njf-series, with how often the RS/RD model was kept and how often the screen left it out.
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
@@ -24,17 +26,36 @@ const truth = readNetlistTruth(FIXTURE).params;
 const families: CurveFamily[] = Array.from({ length: N }, (_, i) => withNoise(clean, 0.003 * maxCurrentA(clean), 1 + i));
 const pointsPerFamily = clean.curves.reduce((s, c) => s + c.points.idA.length, 0);
 
+/** RS/RD fixture for the auto-mode timing on parts that need the extended model. */
+const SERIES_FIXTURE = 'njf-series';
+const seriesClean = readCommittedFamily(SERIES_FIXTURE);
+const seriesFamilies: CurveFamily[] = Array.from({ length: N }, (_, i) =>
+  withNoise(seriesClean, 0.003 * maxCurrentA(seriesClean), 1 + i),
+);
+
 /** Best of `rounds` passes over all families (the machine is shared; the minimum is the cost). */
-function timeJs(extended: 'never' | 'auto', rounds = 3) {
-  for (const f of families) fitCurveFamily(f, { vdsTestV: 10, extended }); // warm-up
+function timeJs(extended: 'never' | 'auto', rounds = 3, set: CurveFamily[] = families) {
+  for (const f of set) fitCurveFamily(f, { vdsTestV: 10, extended }); // warm-up
   let best = Infinity;
   let results = [] as ReturnType<typeof fitCurveFamily>[];
   for (let r = 0; r < rounds; r++) {
     const t0 = performance.now();
-    results = families.map((f) => fitCurveFamily(f, { vdsTestV: 10, extended }));
-    best = Math.min(best, (performance.now() - t0) / N);
+    results = set.map((f) => fitCurveFamily(f, { vdsTestV: 10, extended }));
+    best = Math.min(best, (performance.now() - t0) / set.length);
   }
   return { msPerFit: best, results };
+}
+
+/** How auto mode decided: extended model kept, and (when the engine reports it) screened out. */
+function autoOutcome(results: ReturnType<typeof fitCurveFamily>[]) {
+  let kept = 0;
+  let screened = 0;
+  for (const r of results) {
+    if (r.status !== 'fitted') continue;
+    if (r.model === 'level1+rs_rd') kept++;
+    if ((r.extendedTest as { screened?: boolean } | null)?.screened) screened++;
+  }
+  return `RS/RD kept ${kept}/${results.length}, screened out ${screened}/${results.length}`;
 }
 
 /** The library's own cost: 2 iterations on 549 points whose model values and Jacobian rows are precomputed. */
@@ -64,6 +85,7 @@ function timeLibraryAlone(rounds = 3) {
 const libraryMs = timeLibraryAlone();
 const js = timeJs('never');
 const jsAuto = timeJs('auto');
+const jsAutoSeries = timeJs('auto', 3, seriesFamilies);
 const jsParams = js.results.map((r) => {
   if (r.status !== 'fitted') throw new Error('a bench family did not fit');
   return [r.parameters.vtoV.value, r.parameters.betaAPerV2.value, r.parameters.lambdaPerV.value];
@@ -109,7 +131,8 @@ const lines = [
     `${(jsBest / (scipy.seconds_per_fit * 1e3)).toFixed(3)} × SciPy's time (target ≤ 0.25), ` +
     `library iterations mean ${(iterations.reduce((a, b) => a + b, 0) / N).toFixed(2)}`,
   `  of which ml-levenberg-marquardt's own work (2 iterations, model precomputed): ${libraryMs.toFixed(3)} ms`,
-  `fitCurveFamily extended='auto' (level-1 + RS/RD fit + F-test): ${jsAuto.msPerFit.toFixed(3)} ms per fit`,
+  `fitCurveFamily extended='auto' on ${FIXTURE} (level-1 card): ${jsAuto.msPerFit.toFixed(3)} ms per fit, ${autoOutcome(jsAuto.results)}`,
+  `fitCurveFamily extended='auto' on ${SERIES_FIXTURE} (RS/RD card): ${jsAutoSeries.msPerFit.toFixed(3)} ms per fit, ${autoOutcome(jsAutoSeries.results)}`,
   'accuracy, RMS relative error against the card over all families (JS | SciPy):',
   ...names.map((n, k) => `  ${n.padEnd(6)} ${rmsRelError(jsParams, k).toExponential(3)} | ${rmsRelError(scipyParams, k).toExponential(3)}`),
   `largest JS/SciPy parameter disagreement: ${maxDisagreement.toExponential(2)} relative`,

@@ -87,11 +87,20 @@ export interface FitQuality {
   pointsFitted: number;
 }
 
-/** Outcome of the F-test that decides between the level-1 and the extended model. */
+/**
+ * Outcome of the F-test that decides between the level-1 and the extended model. When the
+ * pre-screen (`screenExtendedModel`) left the full RS/RD fit out, `screened` is true and
+ * `fStatistic`, `pValue` are the screen's predicted ones (`kept` is then false).
+ */
 export interface ExtendedModelTest {
   fStatistic: number;
   pValue: number;
   kept: boolean;
+  /** True when the full extended fit was skipped on the screen's prediction. */
+  screened?: boolean;
+  /** The screen's one-step Gauss–Newton prediction, in 'auto' mode. */
+  predictedFStatistic?: number;
+  predictedPValue?: number;
 }
 
 export interface FittedResult {

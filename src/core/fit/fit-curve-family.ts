@@ -10,6 +10,7 @@ import type {
   FittedResult,
 } from './definitions.ts';
 import { deriveFigures, measuredIdssA } from './derived-figures.ts';
+import { screenExtendedModel } from './extended-model-screen.ts';
 import { fTestTwoExtraParameters } from './f-test.ts';
 import {
   MIN_CONDUCTING_CURVES,
@@ -40,7 +41,8 @@ import { D_RD, D_RS, SERIES_PARTIALS_LENGTH, seriesCurrentWithPartials } from '.
 import { countConductingCurves, estimateStartingValues, type StartingValues } from './starting-values.ts';
 
 /** Changes whenever a change here could move a fitted number; stored with every fit. */
-export const FIT_ENGINE_VERSION = 'sluice-fit/1.0.0 (level1, rs_rd F-test p<0.01, ml-levenberg-marquardt 5.1.0)';
+export const FIT_ENGINE_VERSION =
+  'sluice-fit/1.1.0 (level1, rs_rd F-test p<0.01 after a one-step score screen skipping at predicted p>0.5, ml-levenberg-marquardt 5.1.0)';
 
 const PARAM_NAMES = ['VTO', 'BETA', 'LAMBDA', 'RS', 'RD'];
 
@@ -77,8 +79,9 @@ interface ModelFit {
  * Fits one sweep jointly to the SPICE level-1 JFET model and derives the data-sheet figures.
  * Steps: starting values from the saturation region; self-heating and breakdown points left
  * out (flagged); Levenberg–Marquardt on VTO, BETA, LAMBDA; with `extended` 'auto' (default)
- * also on RS and RD, kept when the extra-sum-of-squares F-test gives p < 0.01, 'always'
- * keeps it regardless, 'never' skips it. Any flag sets `needsReview`.
+ * also on RS and RD, kept when the extra-sum-of-squares F-test gives p < 0.01, unless the
+ * one-step screen (`screenExtendedModel`) predicts p > 0.5, which leaves the RS/RD fit out;
+ * 'always' fits and keeps it regardless, 'never' skips it. Any flag sets `needsReview`.
  */
 export function fitCurveFamily(family: CurveFamily, options: FitOptions): FitResult {
   const curves = prepareCurves(family, options.excludedPoints);
@@ -120,9 +123,17 @@ export function fitCurveFamily(family: CurveFamily, options: FitOptions): FitRes
   let chosen = simple;
   let extendedTest: ExtendedModelTest | null = null;
   if (extended !== 'never' && points.n > 8) {
-    const full = fitModel('level1+rs_rd', points, scaling, start, simple.params);
-    extendedTest = fTestTwoExtraParameters(simple.sseA2, full.sseA2, points.n, 5);
-    if (extended === 'always' || extendedTest.kept) chosen = full;
+    const screen = extended === 'auto' ? screenExtendedModel(points, simple.params, simple.sseA2) : null;
+    const predicted = screen
+      ? { predictedFStatistic: screen.predicted.fStatistic, predictedPValue: screen.predicted.pValue }
+      : {};
+    if (screen?.skip) {
+      extendedTest = { ...screen.predicted, kept: false, screened: true, ...predicted };
+    } else {
+      const full = fitModel('level1+rs_rd', points, scaling, start, simple.params);
+      extendedTest = { ...fTestTwoExtraParameters(simple.sseA2, full.sseA2, points.n, 5), screened: false, ...predicted };
+      if (extended === 'always' || extendedTest.kept) chosen = full;
+    }
   }
   return assemble(chosen, curves, points, options, flags, extendedTest, temperatureC);
 }

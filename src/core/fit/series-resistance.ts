@@ -71,13 +71,33 @@ export function seriesCurrentWithPartials(
     if (g > 0) hi = id;
     else lo = id;
     const slope = 1 + rsOhm * scratch[D_VGS] + rTotal * scratch[D_VDS];
-    let next = id - g / slope;
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    const step = g / slope;
+    // A step within the tolerance ends the search: its partials (taken ≤ 1e-13·upper away)
+    // serve the solution, which saves re-evaluating the model at the last Newton point.
+    if (Math.abs(step) <= tolerance) {
+      id -= step;
+      return writeSolutionPartials(id, rsOhm, rTotal, out, scratch);
+    }
+    let next = id - step;
+    // The root may sit on the upper end (saturation with RS = RD = 0 gives f = upper), so
+    // that end is allowed; bisection otherwise crawls to it one bit per step.
+    if (!(next > lo && next <= hi)) next = 0.5 * (lo + hi);
     const change = Math.abs(next - id);
     id = next;
     if (change <= tolerance) break;
   }
   intrinsicCurrentWithPartials(vtoV, beta, lambda, vgsV - id * rsOhm, vdsV - id * rTotal, scratch);
+  return writeSolutionPartials(id, rsOhm, rTotal, out, scratch);
+}
+
+/** Implicit-differentiation partials of the series solution `id` from the intrinsic ones in `scratch`. */
+function writeSolutionPartials(
+  id: number,
+  rsOhm: number,
+  rTotal: number,
+  out: Float64Array,
+  scratch: Float64Array,
+): number {
   const fg = scratch[D_VGS];
   const fd = scratch[D_VDS];
   const den = 1 + rsOhm * fg + rTotal * fd;
