@@ -1,3 +1,4 @@
+import { PART_STATUSES, describePartStatus } from '../../core/stock/part-transitions';
 import type { ApiCurve } from '../charts/chart-data';
 
 export interface FlagDetail {
@@ -77,18 +78,10 @@ export function flagWord(code: string): string {
   return FLAG_WORDS[code] ?? code.replace(/_/g, ' ');
 }
 
-export const STATUS_WORDS: Record<string, string> = {
-  measured: 'measured',
-  needs_review: 'waiting for review',
-  retest: 'marked for retest',
-  accepted: 'accepted',
-  in_stock: 'in stock',
-  reserved: 'reserved',
-  issued: 'issued',
-  returned: 'returned',
-  scrapped: 'scrapped',
-  quarantined: 'quarantined',
-};
+/** Status words shared with the server's messages. */
+export const STATUS_WORDS: Record<string, string> = Object.fromEntries(
+  PART_STATUSES.map((status) => [status, describePartStatus(status)]),
+);
 
 export function statusClass(status: string): string {
   if (status === 'accepted' || status === 'in_stock') return 'tag-ok';

@@ -13,22 +13,12 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { PART_STATUSES } from '../../core/stock/part-transitions';
 import { stationToken, user } from './auth';
 import { deviceType, location, lot } from './catalogue';
 
 /** A part's life: see src/core/stock/part-transitions.ts for the allowed moves. */
-export const partStatusEnum = pgEnum('part_status', [
-  'measured',
-  'needs_review',
-  'retest',
-  'accepted',
-  'in_stock',
-  'reserved',
-  'issued',
-  'returned',
-  'scrapped',
-  'quarantined',
-]);
+export const partStatusEnum = pgEnum('part_status', PART_STATUSES);
 
 export const part = pgTable(
   'part',
