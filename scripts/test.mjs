@@ -71,19 +71,39 @@ const statuses = [];
 if (!only || only === 'unit') statuses.push(vitest('unit', 'vitest.config.ts'));
 
 const children = [];
-if (!only || only !== 'unit') {
+const appChildren = [];
+/** A freshly created, migrated and seeded test database: each suite starts from the demo scenario alone. */
+function freshDatabase() {
+  dropDatabase(bin, TEST_DB);
+  ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, [TEST_DB]);
+  fs.rmSync(uploadsDir, { recursive: true, force: true });
   run(path.join(bins, 'tsx'), ['scripts/migrate.ts'], { env: envAll });
+  run(path.join(bins, 'tsx'), ['scripts/seed-demo.ts'], { env: envAll });
+}
+async function startApp(suite) {
+  appChildren.push(startChild('worker', path.join(bins, 'tsx'), ['src/worker.ts'], env, path.join(logsDir, `${suite}-worker.log`)));
+  appChildren.push(startChild('web', process.execPath, [path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs')], env, path.join(logsDir, `${suite}-web.log`)));
+  await waitForHttp(`${env.SLUICE_TEST_BASE_URL}/api/health`, 120_000);
+}
+async function stopApp() {
+  const exits = appChildren.map((c) => new Promise((r) => (c.exitCode !== null ? r() : c.once('exit', r))));
+  for (const c of appChildren) c.kill('SIGTERM');
+  await Promise.race([Promise.all(exits), new Promise((r) => setTimeout(r, 15_000))]);
+  appChildren.length = 0;
+}
+if (!only || only !== 'unit') {
   for (const port of [PORT, SMTP_PORT]) if (await portInUse(port)) fail(`Port ${port} is in use; the test servers need it. Set SLUICE_TEST_PORT / SLUICE_TEST_SMTP_PORT.`);
   children.push(startChild('mail', path.join(bins, 'tsx'), ['scripts/mail-sink.ts'], env, path.join(logsDir, 'mail.log')));
   await waitForPort(SMTP_PORT);
-  run(path.join(bins, 'tsx'), ['scripts/seed-demo.ts'], { env: envAll });
   log('building the app');
   run(path.join(bins, 'astro'), ['build'], { env: envAll });
-  children.push(startChild('worker', path.join(bins, 'tsx'), ['src/worker.ts'], env, path.join(logsDir, 'worker.log')));
-  children.push(startChild('web', process.execPath, [path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs')], env, path.join(logsDir, 'web.log')));
-  await waitForHttp(`${env.SLUICE_TEST_BASE_URL}/api/health`, 120_000);
-  if (!only || only === 'integration') statuses.push(vitest('integration', 'tests/integration/vitest.config.ts'));
-  if (!only || only === 'e2e') statuses.push(vitest('e2e', 'tests/e2e/vitest.config.ts'));
+  for (const [suite, config] of [['integration', 'tests/integration/vitest.config.ts'], ['e2e', 'tests/e2e/vitest.config.ts']]) {
+    if (only && only !== suite) continue;
+    freshDatabase();
+    await startApp(suite);
+    statuses.push(vitest(suite, config));
+    await stopApp();
+  }
   for (const c of children) c.kill('SIGTERM');
   log(`server, worker and mail-sink logs of this run: ${path.relative(ROOT, logsDir)}/`);
 }
