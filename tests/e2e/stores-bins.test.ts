@@ -93,6 +93,12 @@ describe('stores in the browser', () => {
     const page = await context.newPage();
     await signInThroughForm(page, 'admin@demo.sluice.test', undefined, '/admin/bin-plans');
     await page.goto(`${BASE_URL}/admin/bin-plans`);
+    try {
+      await page.locator(`#plan-type option[value="${type.name}"]`).waitFor({ state: 'attached', timeout: 60_000 });
+    } catch (err) {
+      await screenshot(page, 'bin-plans-not-ready');
+      throw new Error(`the bin-plan editor did not offer ${type.name}; the page said: ${(await page.locator('main').textContent())?.slice(0, 400)}`, { cause: err });
+    }
     await page.getByLabel('Device type').selectOption(type.name);
     await page.locator('#axis0-width').fill('1');
     await page.locator('#axis0-count').fill('8');
