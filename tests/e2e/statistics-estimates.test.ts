@@ -24,7 +24,7 @@ async function seed() {
     .insert(schema.deviceType)
     .values({ name: TYPE, channel: 'n', vdsTestV: 10, idssMinA: 3e-3, idssMaxA: 16e-3, vpMinV: -4, vpMaxV: -1 })
     .returning();
-  const [plan] = await db.insert(schema.binPlan).values({ deviceTypeId: type.id, version: 1, definition: {}, isActive: true }).returning();
+  const [plan] = await db.insert(schema.binPlan).values({ deviceTypeId: type.id, version: 1, definition: { axes: [{ quantity: 'idss', edges: { kind: 'explicit', edges: [2e-3, 6e-3, 10e-3, 14e-3, 18e-3] } }] }, isActive: true }).returning();
   const bins = await db
     .insert(schema.bin)
     .values(['A1', 'A2', 'A3', 'A4', 'HOLD'].map((code) => ({ binPlanId: plan.id, code, label: code === 'HOLD' ? 'Hold' : `IDSS range ${code}`, ranges: [] })))

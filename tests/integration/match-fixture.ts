@@ -71,7 +71,7 @@ export async function insertMatchStock(o: StockOptions): Promise<{ typeId: numbe
   if (!plan) {
     [plan] = await db
       .insert(schema.binPlan)
-      .values({ deviceTypeId: type!.id, version: 1, name: 'match test plan', definition: { axes: [] }, isActive: true })
+      .values({ deviceTypeId: type!.id, version: 1, name: 'match test plan', definition: { axes: [{ quantity: 'idss', edges: { kind: 'explicit', edges: [1e-4, 1] } }] }, isActive: true })
       .returning();
     await db.insert(schema.bin).values([
       { binPlanId: plan!.id, code: `${o.serialPrefix}-LO`, label: 'lower half (test)', ranges: [] },

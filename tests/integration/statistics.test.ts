@@ -36,7 +36,7 @@ beforeAll(async () => {
     .insert(schema.deviceType)
     .values({ name: TYPE, channel: 'n', vdsTestV: 10, idssMinA: 4e-3, idssMaxA: 16e-3, vpMinV: -4, vpMaxV: -1 })
     .returning();
-  const [plan] = await db.insert(schema.binPlan).values({ deviceTypeId: type.id, version: 1, definition: {}, isActive: true }).returning();
+  const [plan] = await db.insert(schema.binPlan).values({ deviceTypeId: type.id, version: 1, definition: { axes: [{ quantity: 'idss', edges: { kind: 'explicit', edges: [2e-3, 6e-3, 10e-3, 14e-3, 18e-3] } }] }, isActive: true }).returning();
   const bins = await db
     .insert(schema.bin)
     .values(['I1', 'I2', 'I3', 'HOLD'].map((code) => ({ binPlanId: plan.id, code, label: `bin ${code}`, ranges: [], isHold: code === 'HOLD' })))

@@ -100,7 +100,8 @@ export default function BinPlanEditor() {
   }, [data, typeName]);
   useEffect(() => {
     if (!type) return;
-    setAxes(active ? active.definition.axes.map(axisToForm) : defaultAxes(type));
+    // A stored definition without axes (written outside this editor) starts from the defaults.
+    setAxes(active?.definition?.axes?.length ? active.definition.axes.map(axisToForm) : defaultAxes(type));
     setName('');
     setPreview(undefined);
   }, [typeName, active?.id]);
