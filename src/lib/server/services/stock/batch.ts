@@ -4,6 +4,7 @@ import { describePartStatus } from '../../../../core/stock/part-transitions';
 import { schema, type DbOrTx } from '../../../../db/client';
 import { AppError } from '../../errors';
 import type { LowStockAlert } from '../alerts/low-stock';
+import type { ChangedPart } from '../parts/change-status';
 
 export interface LockedPart {
   id: number;
@@ -120,4 +121,22 @@ export interface StockActionResult {
 
 export function alertsJson(alerts: readonly LowStockAlert[]): StockActionResult['low_stock_alerts'] {
   return alerts.map((a) => ({ bin_code: a.code, device_type: a.deviceType, on_hand: a.onHand, threshold: a.threshold }));
+}
+
+/** The answer every stock batch gives: each changed part with its bin and where it now is. */
+export async function stockActionResult(
+  tx: DbOrTx,
+  action: StockActionResult['action'],
+  parts: readonly LockedPart[],
+  changed: readonly ChangedPart[],
+  alerts: readonly LowStockAlert[],
+): Promise<StockActionResult> {
+  const names = await locationNames(tx, changed.map((c) => c.locationId));
+  const byId = new Map(parts.map((p) => [p.id, p]));
+  return {
+    action,
+    count: changed.length,
+    parts: changed.map((c) => ({ serial: c.serial, from: c.from, to: c.to, bin_code: byId.get(c.partId)!.binCode, location: c.locationId ? names.get(c.locationId) ?? null : null })),
+    low_stock_alerts: alertsJson(alerts),
+  };
 }

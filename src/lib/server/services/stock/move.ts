@@ -1,7 +1,7 @@
 import { getDb } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 import { changePartStatuses } from '../parts/change-status';
-import { locationNames, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, type Refusal, type StockActionResult } from './batch';
+import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
 import { MoveInput } from './schemas';
 
 /**
@@ -26,13 +26,6 @@ export async function moveParts({ actor, input }: { actor: Actor | null; input: 
       parts.map((p) => ({ partId: p.id, to: 'in_stock' as const, set: { locationId: target?.id ?? p.homeLocationId } })),
       { action: 'stock.move', reason: data.reason ?? null },
     );
-    const names = await locationNames(tx, changed.map((c) => c.locationId));
-    const byId = new Map(parts.map((p) => [p.id, p]));
-    return {
-      action: 'move' as const,
-      count: changed.length,
-      parts: changed.map((c) => ({ serial: c.serial, from: c.from, to: c.to, bin_code: byId.get(c.partId)!.binCode, location: c.locationId ? names.get(c.locationId) ?? null : null })),
-      low_stock_alerts: [],
-    };
+    return stockActionResult(tx, 'move', parts, changed, []);
   });
 }

@@ -4,7 +4,7 @@ import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
-import { alertsJson, locationNames, lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, type Refusal, type StockActionResult } from './batch';
+import { lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
 import { ReceiveInput } from './schemas';
 
 /** States a part may be received from: freshly accepted, or back from an issue. */
@@ -57,14 +57,7 @@ export async function receiveParts({ actor, input }: { actor: Actor | null; inpu
       { action: 'stock.receive', reason: data.reason ?? null },
     );
     const alerts = await checkLowStock(tx, parts.map((p) => p.binId), { mayDrop: false });
-    const names = await locationNames(tx, changed.map((c) => c.locationId));
-    const byId = new Map(parts.map((p) => [p.id, p]));
-    const result: StockActionResult = {
-      action: 'receive',
-      count: changed.length,
-      parts: changed.map((c) => ({ serial: c.serial, from: c.from, to: c.to, bin_code: byId.get(c.partId)!.binCode, location: c.locationId ? names.get(c.locationId) ?? null : null })),
-      low_stock_alerts: alertsJson(alerts),
-    };
+    const result = await stockActionResult(tx, 'receive', parts, changed, alerts);
     return { result, alerts };
   });
   await mailLowStockAlerts(alerts);

@@ -2,7 +2,7 @@ import { getDb } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses, type ChangedPart } from '../parts/change-status';
-import { alertsJson, locationNames, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, type Refusal, type StockActionResult } from './batch';
+import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
 import { ReturnInput } from './schemas';
 
 /**
@@ -40,14 +40,7 @@ export async function returnParts({ actor, input }: { actor: Actor | null; input
       changed = changed.map((c, i) => ({ ...restocked[i], from: c.from }));
     }
     const alerts = await checkLowStock(tx, parts.map((p) => p.binId), { mayDrop: false });
-    const names = await locationNames(tx, changed.map((c) => c.locationId));
-    const byId = new Map(parts.map((p) => [p.id, p]));
-    const result: StockActionResult = {
-      action: 'return',
-      count: changed.length,
-      parts: changed.map((c) => ({ serial: c.serial, from: c.from, to: c.to, bin_code: byId.get(c.partId)!.binCode, location: c.locationId ? names.get(c.locationId) ?? null : null })),
-      low_stock_alerts: alertsJson(alerts),
-    };
+    const result = await stockActionResult(tx, 'return', parts, changed, alerts);
     return { result, alerts };
   });
   await mailLowStockAlerts(alerts);

@@ -2,7 +2,7 @@ import { getDb } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
-import { alertsJson, lockPartsBySerial, type StockActionResult } from './batch';
+import { lockPartsBySerial, stockActionResult, type StockActionResult } from './batch';
 import { ScrapInput } from './schemas';
 
 /**
@@ -22,13 +22,7 @@ export async function scrapParts({ actor, input }: { actor: Actor | null; input:
       { action: 'stock.scrap', reason: data.reason },
     );
     const alerts = await checkLowStock(tx, parts.map((p) => p.binId));
-    const byId = new Map(parts.map((p) => [p.id, p]));
-    const result: StockActionResult = {
-      action: 'scrap',
-      count: changed.length,
-      parts: changed.map((c) => ({ serial: c.serial, from: c.from, to: c.to, bin_code: byId.get(c.partId)!.binCode, location: null })),
-      low_stock_alerts: alertsJson(alerts),
-    };
+    const result = await stockActionResult(tx, 'scrap', parts, changed, alerts);
     return { result, alerts };
   });
   await mailLowStockAlerts(alerts);
