@@ -1,5 +1,5 @@
 import type PgBoss from 'pg-boss';
-import { ingestStoredFile } from '../services/intake/ingest-stored-file';
+import { ingestStoredFiles } from '../services/intake/ingest-stored-file';
 
 export interface FitUploadFileJob {
   uploadFileId: number;
@@ -9,10 +9,11 @@ export interface FitUploadFileJob {
 export const FIT_BATCH_SIZE = 25;
 
 /**
- * Works a batch of fitting jobs one file after another. A file that cannot be used is marked
- * rejected by the service (that is not a job failure); only infrastructure errors throw, and
- * pg-boss retries the batch — files already done are left alone on the second run.
+ * Works a batch of fitting jobs: every file is parsed and fitted, then the batch is stored a
+ * few transactions at a time. A file that cannot be used is marked rejected by the service
+ * (that is not a job failure); only infrastructure errors throw, and pg-boss retries the
+ * batch — files already done are left alone on the second run.
  */
 export async function fitUploadFiles(jobs: PgBoss.Job<FitUploadFileJob>[]): Promise<void> {
-  for (const job of jobs) await ingestStoredFile(job.data.uploadFileId);
+  await ingestStoredFiles(jobs.map((job) => job.data.uploadFileId));
 }

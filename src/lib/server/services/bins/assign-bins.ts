@@ -38,7 +38,7 @@ export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partId
     : [];
   const binByPlanCode = new Map(bins.map((b) => [`${b.binPlanId}:${b.code}`, b]));
 
-  let changed = 0;
+  const moves: { partId: number; serial: string; fromBinId: number | null; bin: typeof schema.bin.$inferSelect; fitId: number; planVersion: number }[] = [];
   for (const { part, fit, type } of rows) {
     const plan = planByType.get(type.id);
     if (!plan) continue;
@@ -46,21 +46,28 @@ export async function assignBinsForParts(tx: DbOrTx, actor: Actor | null, partId
     const assignment = assignBin(definition, binFiguresOf(fit, type, definition));
     const target = binByPlanCode.get(`${plan.id}:${assignment.code}`);
     if (!target || target.id === part.binId) continue;
-    await tx.update(schema.part).set({ binId: target.id, updatedAt: new Date() }).where(eq(schema.part.id, part.id));
-    await tx.insert(schema.binAssignment).values({
-      partId: part.id,
-      binId: target.id,
-      fitId: fit.id,
-      assignedBy: actor?.userId ?? actor?.stationId ?? null,
-    });
-    await writeAudit(tx, actor, {
+    moves.push({ partId: part.id, serial: part.serial, fromBinId: part.binId, bin: target, fitId: fit.id, planVersion: plan.version });
+  }
+  if (moves.length === 0) return 0;
+
+  const now = new Date();
+  for (const binId of new Set(moves.map((m) => m.bin.id))) {
+    const ids = moves.filter((m) => m.bin.id === binId).map((m) => m.partId);
+    await tx.update(schema.part).set({ binId, updatedAt: now }).where(inArray(schema.part.id, ids));
+  }
+  await tx.insert(schema.binAssignment).values(
+    moves.map((m) => ({ partId: m.partId, binId: m.bin.id, fitId: m.fitId, assignedBy: actor?.userId ?? actor?.stationId ?? null })),
+  );
+  await writeAudit(
+    tx,
+    actor,
+    moves.map((m) => ({
       action: 'part.bin',
       subjectType: 'part',
-      subjectId: part.serial,
-      before: { bin_id: part.binId },
-      after: { bin_id: target.id, bin_code: target.code, plan_version: plan.version },
-    });
-    changed++;
-  }
-  return changed;
+      subjectId: m.serial,
+      before: { bin_id: m.fromBinId },
+      after: { bin_id: m.bin.id, bin_code: m.bin.code, plan_version: m.planVersion },
+    })),
+  );
+  return moves.length;
 }

@@ -1,4 +1,4 @@
-import { and, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNull, notInArray, sql } from 'drizzle-orm';
 import type { FitResult, FittedResult } from '../../../../core/fit/definitions';
 import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
@@ -50,63 +50,160 @@ interface FilePlan {
   parts: PartPlan[];
 }
 
+type UploadFileRow = typeof schema.uploadFile.$inferSelect;
+type LotRecord = typeof schema.lot.$inferSelect;
+
+/** A file read, parsed and fitted, waiting to be stored. */
+interface PlannedFile {
+  file: UploadFileRow;
+  actor: Actor;
+  plan: FilePlan;
+}
+
 /**
  * Reads one stored upload file, parses it, fits every part in it and stores the parts,
- * sweeps and fits in ONE transaction, moving each part to `accepted` (and into its bin) or to
- * `needs_review`. A file that cannot be used is marked `rejected` with a reason naming the
- * file, line and column, and stores nothing else. Safe to run twice: a file that is no longer
- * `queued` is left as it is. The fitting job, the demo seed and the bench all call this.
+ * sweeps and fits in one transaction; see `ingestStoredFiles`. The demo seed and the tests
+ * call this; the fitting job takes files a batch at a time.
  */
 export async function ingestStoredFile(uploadFileId: number): Promise<IngestOutcome> {
-  const db = getDb();
-  const [row] = await db
+  const [outcome] = await ingestStoredFiles([uploadFileId]);
+  return outcome;
+}
+
+/**
+ * Reads stored upload files, parses them, fits every part in them and stores the parts,
+ * sweeps and fits, moving each part to `accepted` (and into its bin) or to `needs_review`.
+ * Files are stored together, several to a transaction (one per uploader, and never two files
+ * with the same serial or the same bytes in one), which saves the database round trips that
+ * dominate a busy intake. A file that cannot be used is marked `rejected` with a reason naming
+ * the file, line and column, and stores nothing else; when storing refuses one file of a
+ * group, the group is rolled back and stored file by file, so the others still land. Safe to
+ * run twice: a file that is no longer `queued` is left as it is. Outcomes come back in the
+ * order of `uploadFileIds`.
+ */
+export async function ingestStoredFiles(uploadFileIds: number[]): Promise<IngestOutcome[]> {
+  const ids = [...new Set(uploadFileIds)];
+  if (ids.length === 0) return [];
+  const rows = await getDb()
     .select({ file: schema.uploadFile, upload: schema.upload, stationName: schema.stationToken.name })
     .from(schema.uploadFile)
     .innerJoin(schema.upload, eq(schema.upload.id, schema.uploadFile.uploadId))
     .leftJoin(schema.stationToken, eq(schema.stationToken.id, schema.upload.stationTokenId))
-    .where(eq(schema.uploadFile.id, uploadFileId));
-  if (!row) throw new Error(`upload_file ${uploadFileId} does not exist`);
-  const { file, upload } = row;
-  if (file.state !== 'queued' || file.duplicateOfId !== null) return outcomeOf(file);
+    .where(inArray(schema.uploadFile.id, ids));
+  const rowById = new Map(rows.map((r) => [r.file.id, r]));
+  const outcomes = new Map<number, IngestOutcome>();
+  const lots = lotLookup();
+  const planned: PlannedFile[] = [];
 
-  const actor: Actor = {
-    userId: upload.userId,
-    stationId: upload.stationTokenId,
-    label: row.stationName ? `station ${row.stationName}` : (upload.userId ?? 'unknown'),
-    permissions: [],
-  };
-  const tagsParsed = UploadTags.safeParse(upload.tags ?? {});
-  const tags: UploadTags = tagsParsed.success ? tagsParsed.data : {};
-  const defaultStation = tags.station ?? row.stationName ?? null;
-
-  let plan: FilePlan;
-  try {
-    let bytes: Buffer;
-    try {
-      bytes = await readStoredUpload(file.storedPath);
-    } catch {
-      throw new IngestRejection('stored_file_missing', `${file.originalName}: the stored copy (${file.storedPath}) could not be read; upload the file again.`);
+  for (const id of ids) {
+    const row = rowById.get(id);
+    if (!row) throw new Error(`upload_file ${id} does not exist`);
+    const { file, upload } = row;
+    if (file.state !== 'queued' || file.duplicateOfId !== null) {
+      outcomes.set(id, outcomeOf(file));
+      continue;
     }
-    plan = await planFile(bytes, file.originalName, tags, defaultStation);
-  } catch (err) {
-    if (err instanceof SweepFileError || err instanceof IngestRejection) return markRejected(file.id, err.message, err.code, actor);
-    throw err;
+    const actor: Actor = {
+      userId: upload.userId,
+      stationId: upload.stationTokenId,
+      label: row.stationName ? `station ${row.stationName}` : (upload.userId ?? 'unknown'),
+      permissions: [],
+    };
+    const tagsParsed = UploadTags.safeParse(upload.tags ?? {});
+    const tags: UploadTags = tagsParsed.success ? tagsParsed.data : {};
+    const defaultStation = tags.station ?? row.stationName ?? null;
+    try {
+      let bytes: Buffer;
+      try {
+        bytes = await readStoredUpload(file.storedPath);
+      } catch {
+        throw new IngestRejection('stored_file_missing', `${file.originalName}: the stored copy (${file.storedPath}) could not be read; upload the file again.`);
+      }
+      planned.push({ file, actor, plan: await planFile(bytes, file.originalName, tags, defaultStation, lots) });
+    } catch (err) {
+      if (err instanceof SweepFileError || err instanceof IngestRejection) outcomes.set(id, await markRejected(file.id, err.message, err.code, actor));
+      else throw err;
+    }
   }
 
+  for (const group of storageGroups(planned)) {
+    for (const outcome of await storeGroup(group)) outcomes.set(outcome.uploadFileId, outcome);
+  }
+  return uploadFileIds.map((id) => outcomes.get(id)!);
+}
+
+/**
+ * Splits planned files into groups stored one transaction each, in order: one uploader per
+ * group (the audit names one actor), and no serial or SHA-256 twice in a group, so that a
+ * retest in the same batch lands after the sweep it follows.
+ */
+function storageGroups(planned: PlannedFile[]): PlannedFile[][] {
+  const groups: { actorKey: string; serials: Set<string>; shas: Set<string>; files: PlannedFile[] }[] = [];
+  for (const f of planned) {
+    const actorKey = `${f.actor.userId ?? ''}|${f.actor.stationId ?? ''}`;
+    const serials = f.plan.parts.map((p) => p.serial);
+    // The first group that takes the file without clashing, but never ahead of a group that
+    // already holds one of its serials or its bytes.
+    let at = groups.length;
+    for (let i = groups.length - 1; i >= 0; i--) {
+      const g = groups[i];
+      const clashes = g.shas.has(f.file.sha256) || serials.some((s) => g.serials.has(s));
+      if (clashes) break;
+      if (g.actorKey === actorKey) at = i;
+    }
+    if (at === groups.length) groups.push({ actorKey, serials: new Set(), shas: new Set(), files: [] });
+    const g = groups[at];
+    g.files.push(f);
+    g.shas.add(f.file.sha256);
+    for (const s of serials) g.serials.add(s);
+  }
+  return groups.map((g) => g.files);
+}
+
+/** Stores a group in one transaction; when that refuses a file, stores each file alone. */
+async function storeGroup(group: PlannedFile[]): Promise<IngestOutcome[]> {
   try {
-    return await persistPlan(file, plan, actor);
+    return await persistPlans(group);
   } catch (err) {
-    if (err instanceof IngestRejection) return markRejected(file.id, err.message, err.code, actor);
-    throw err;
+    if (!(err instanceof IngestRejection)) throw err;
+    if (group.length === 1) return [await markRejected(group[0].file.id, err.message, err.code, group[0].actor)];
+    const out: IngestOutcome[] = [];
+    for (const f of group) out.push(...(await storeGroup([f])));
+    return out;
   }
 }
 
-function outcomeOf(file: typeof schema.uploadFile.$inferSelect): IngestOutcome {
+/** Lots by code, each read once per batch of files. */
+function lotLookup(): (codes: string[]) => Promise<Map<string, LotRecord>> {
+  const known = new Map<string, LotRecord | null>();
+  return async (codes) => {
+    const missing = codes.filter((c) => !known.has(c));
+    if (missing.length) {
+      const rows = await getDb().select().from(schema.lot).where(inArray(schema.lot.code, missing));
+      for (const c of missing) known.set(c, null);
+      for (const r of rows) known.set(r.code, r);
+    }
+    const out = new Map<string, LotRecord>();
+    for (const c of codes) {
+      const lot = known.get(c);
+      if (lot) out.set(c, lot);
+    }
+    return out;
+  };
+}
+
+function outcomeOf(file: UploadFileRow): IngestOutcome {
   return { uploadFileId: file.id, state: file.state, reason: file.reason, serials: file.serials };
 }
 
 /** Parse and fit: everything that needs no database row locked. */
-async function planFile(bytes: Buffer, fileName: string, tags: UploadTags, defaultStation: string | null): Promise<FilePlan> {
+async function planFile(
+  bytes: Buffer,
+  fileName: string,
+  tags: UploadTags,
+  defaultStation: string | null,
+  lotsByCode: (codes: string[]) => Promise<Map<string, LotRecord>>,
+): Promise<FilePlan> {
   const text = new TextDecoder('utf-8').decode(bytes);
   const hints = readFileHints(text);
   const types = await deviceTypesByName();
@@ -143,10 +240,7 @@ async function planFile(bytes: Buffer, fileName: string, tags: UploadTags, defau
     const code = p.metadata.lot ?? tags.lot;
     if (code) lotCodes.add(code);
   }
-  const lots = lotCodes.size
-    ? await getDb().select().from(schema.lot).where(inArray(schema.lot.code, [...lotCodes]))
-    : [];
-  const lotByCode = new Map(lots.map((l) => [l.code, l]));
+  const lotByCode = lotCodes.size ? await lotsByCode([...lotCodes]) : new Map<string, LotRecord>();
 
   parsed.parts.forEach((p, indexInFile) => {
     const lotCode = p.metadata.lot ?? tags.lot;
@@ -195,54 +289,87 @@ async function planFile(bytes: Buffer, fileName: string, tags: UploadTags, defau
   return { type, parts };
 }
 
-async function persistPlan(file: typeof schema.uploadFile.$inferSelect, plan: FilePlan, actor: Actor): Promise<IngestOutcome> {
-  const { type, parts } = plan;
+/**
+ * Stores a group of planned files in ONE transaction (see `storageGroups` for what may share
+ * one). Throws IngestRejection, storing nothing, when a part cannot take a new sweep.
+ */
+async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
+  const actor = group[0].actor;
   return getDb().transaction(async (tx) => {
-    const [locked] = await tx.select().from(schema.uploadFile).where(eq(schema.uploadFile.id, file.id)).for('update');
-    if (!locked || locked.state !== 'queued') return outcomeOf(locked ?? file);
+    const ids = group.map((f) => f.file.id).sort((a, b) => a - b);
+    const locked = await tx.select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, ids)).orderBy(schema.uploadFile.id).for('update');
+    const lockedById = new Map(locked.map((l) => [l.id, l]));
+    const out: IngestOutcome[] = [];
+    let live = group.filter((f) => {
+      const now = lockedById.get(f.file.id);
+      if (now && now.state === 'queued' && now.duplicateOfId === null) return true;
+      out.push(outcomeOf(now ?? f.file));
+      return false;
+    });
+    if (live.length === 0) return out;
 
     // The same bytes may have been fitted meanwhile from another upload: no second sweep.
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtextextended(${file.sha256}, 0))`);
-    const [earlier] = await tx
+    // Locks in SHA order, so two groups cannot wait on each other.
+    const shas = [...new Set(live.map((f) => f.file.sha256))].sort();
+    await tx.execute(
+      sql`select pg_advisory_xact_lock(hashtextextended(t.sha, 0)) from (select sha from (values ${sql.join(
+        shas.map((s) => sql`(${s})`),
+        sql`, `,
+      )}) as v(sha) order by sha offset 0) as t`,
+    );
+    const earlier = await tx
       .select()
       .from(schema.uploadFile)
       .where(
         and(
-          eq(schema.uploadFile.sha256, file.sha256),
-          ne(schema.uploadFile.id, file.id),
+          inArray(schema.uploadFile.sha256, shas),
+          notInArray(schema.uploadFile.id, ids),
           isNull(schema.uploadFile.duplicateOfId),
           inArray(schema.uploadFile.state, ['fitted', 'needs_review']),
         ),
       )
-      .limit(1);
-    if (earlier) {
-      await tx.update(schema.uploadFile).set({ duplicateOfId: earlier.id, finishedAt: new Date() }).where(eq(schema.uploadFile.id, file.id));
-      return { uploadFileId: file.id, state: earlier.state, reason: null, serials: earlier.serials };
+      .orderBy(schema.uploadFile.id);
+    const earlierBySha = new Map<string, UploadFileRow>();
+    for (const e of earlier) if (!earlierBySha.has(e.sha256)) earlierBySha.set(e.sha256, e);
+    const copies = live.filter((f) => earlierBySha.has(f.file.sha256));
+    for (const f of copies) {
+      const first = earlierBySha.get(f.file.sha256)!;
+      await tx.update(schema.uploadFile).set({ duplicateOfId: first.id, finishedAt: new Date() }).where(eq(schema.uploadFile.id, f.file.id));
+      out.push({ uploadFileId: f.file.id, state: first.state, reason: null, serials: first.serials });
     }
+    live = live.filter((f) => !earlierBySha.has(f.file.sha256));
+    if (live.length === 0) return out;
 
-    const serials = parts.map((p) => p.serial);
-    const sorted = [...parts].sort((a, b) => (a.serial < b.serial ? -1 : a.serial > b.serial ? 1 : 0));
+    const entries = live.flatMap((f) => f.plan.parts.map((p) => ({ f, p })));
+    const bySerial = [...entries].sort((a, b) => (a.p.serial < b.p.serial ? -1 : a.p.serial > b.p.serial ? 1 : 0));
     await tx
       .insert(schema.part)
-      .values(sorted.map((p) => ({ serial: p.serial, deviceTypeId: type.id, lotId: p.lotId })))
+      .values(bySerial.map(({ f, p }) => ({ serial: p.serial, deviceTypeId: f.plan.type.id, lotId: p.lotId })))
       .onConflictDoNothing({ target: schema.part.serial });
-    const partRows = await tx.select().from(schema.part).where(inArray(schema.part.serial, serials));
+    // Locked in id order, as every status change locks them, so batches cannot deadlock.
+    const partRows = await tx
+      .select()
+      .from(schema.part)
+      .where(inArray(schema.part.serial, bySerial.map((e) => e.p.serial)))
+      .orderBy(schema.part.id)
+      .for('update');
     const partBySerial = new Map(partRows.map((r) => [r.serial, r]));
-    for (const p of parts) {
+    for (const { f, p } of entries) {
       const existing = partBySerial.get(p.serial)!;
+      const type = f.plan.type;
       if (existing.deviceTypeId !== type.id) {
-        throw new IngestRejection('type_conflict', `${file.originalName}: part ${p.serial} is already known as another device type, not ${type.name}. Check the serial or the device type.`);
+        throw new IngestRejection('type_conflict', `${f.file.originalName}: part ${p.serial} is already known as another device type, not ${type.name}. Check the serial or the device type.`);
       }
       const refusal = NO_NEW_SWEEP[existing.status];
-      if (refusal) throw new IngestRejection('part_unavailable', `${file.originalName}: part ${p.serial} ${refusal}.`);
+      if (refusal) throw new IngestRejection('part_unavailable', `${f.file.originalName}: part ${p.serial} ${refusal}.`);
     }
 
     const sweeps = await tx
       .insert(schema.sweep)
       .values(
-        parts.map((p) => ({
+        entries.map(({ f, p }) => ({
           partId: partBySerial.get(p.serial)!.id,
-          uploadFileId: file.id,
+          uploadFileId: f.file.id,
           indexInFile: p.indexInFile,
           vgsStepsV: p.curves.map((c) => c.vgs_v),
           curves: p.curves,
@@ -253,61 +380,69 @@ async function persistPlan(file: typeof schema.uploadFile.$inferSelect, plan: Fi
           metadata: p.metadata,
         })),
       )
-      .returning({ id: schema.sweep.id, indexInFile: schema.sweep.indexInFile });
-    const sweepByIndex = new Map(sweeps.map((s) => [s.indexInFile, s.id]));
+      .returning({ id: schema.sweep.id, partId: schema.sweep.partId });
+    const sweepByPart = new Map(sweeps.map((s) => [s.partId, s.id]));
 
     // A clean fit goes to accepted where the part's state allows; otherwise a person looks.
-    const targets = parts.map((p) => {
-      const from = partBySerial.get(p.serial)!.status;
+    const targets = entries.map(({ f, p }) => {
+      const part = partBySerial.get(p.serial)!;
       const wanted: PartStatus = p.fit.needsReview ? 'needs_review' : 'accepted';
-      const to: PartStatus = from === wanted || checkPartTransition(from, wanted).ok ? wanted : 'needs_review';
-      return { p, from, to };
+      const to: PartStatus = part.status === wanted || checkPartTransition(part.status, wanted).ok ? wanted : 'needs_review';
+      return { f, p, part, to };
     });
     const fits = await tx
       .insert(schema.fit)
       .values(
-        targets.map(({ p, to }) =>
-          fitColumns(p.fit, type.channel, { sweepId: sweepByIndex.get(p.indexInFile)!, partId: partBySerial.get(p.serial)!.id }, to === 'accepted' ? 'auto_accepted' : 'needs_review'),
+        targets.map(({ f, p, part, to }) =>
+          fitColumns(p.fit, f.plan.type.channel, { sweepId: sweepByPart.get(part.id)!, partId: part.id }, to === 'accepted' ? 'auto_accepted' : 'needs_review'),
         ),
       )
       .returning({ id: schema.fit.id, partId: schema.fit.partId });
     const fitByPart = new Map(fits.map((f) => [f.partId, f.id]));
 
-    for (const { p } of targets) {
-      const part = partBySerial.get(p.serial)!;
-      await tx
-        .update(schema.part)
-        .set({ currentFitId: fitByPart.get(part.id)!, lotId: part.lotId ?? p.lotId, updatedAt: new Date() })
-        .where(eq(schema.part.id, part.id));
-    }
+    const currentFits = targets.map(({ p, part }) => ({ id: part.id, fit_id: fitByPart.get(part.id)!, lot_id: p.lotId }));
+    await tx.execute(sql`
+      update ${schema.part} set current_fit_id = x.fit_id, lot_id = coalesce(${schema.part.lotId}, x.lot_id), updated_at = now()
+      from jsonb_to_recordset(${JSON.stringify(currentFits)}::jsonb) as x(id integer, fit_id integer, lot_id integer)
+      where ${schema.part.id} = x.id`);
     await writeAudit(
       tx,
       actor,
-      targets.map(({ p }) => {
-        const part = partBySerial.get(p.serial)!;
-        return {
-          action: 'part.sweep',
-          subjectType: 'part',
-          subjectId: p.serial,
-          after: {
-            sweep_id: sweepByIndex.get(p.indexInFile),
-            fit_id: fitByPart.get(part.id),
-            upload_file_id: file.id,
-            file_name: file.originalName,
-            flags: p.fit.flags.map((f) => f.code),
-          },
-        };
-      }),
+      targets.map(({ f, p, part }) => ({
+        action: 'part.sweep',
+        subjectType: 'part',
+        subjectId: p.serial,
+        after: {
+          sweep_id: sweepByPart.get(part.id),
+          fit_id: fitByPart.get(part.id),
+          upload_file_id: f.file.id,
+          file_name: f.file.originalName,
+          flags: p.fit.flags.map((flag) => flag.code),
+        },
+      })),
     );
 
-    const changes: StatusChange[] = targets.filter((t) => t.from !== t.to).map((t) => ({ partId: partBySerial.get(t.p.serial)!.id, to: t.to }));
-    await changePartStatuses(tx, actor, changes, { action: 'part.fit', reason: `fitted from ${file.originalName}` });
-    const accepted = targets.filter((t) => t.to === 'accepted').map((t) => partBySerial.get(t.p.serial)!.id);
-    await assignBinsForParts(tx, actor, accepted);
+    const changes: StatusChange[] = targets
+      .filter((t) => t.part.status !== t.to)
+      .map((t) => ({ partId: t.part.id, to: t.to, reason: `fitted from ${t.f.file.originalName}` }));
+    await changePartStatuses(tx, actor, changes, { action: 'part.fit' });
+    await assignBinsForParts(
+      tx,
+      actor,
+      targets.filter((t) => t.to === 'accepted').map((t) => t.part.id),
+    );
 
-    const state: UploadFileState = targets.some((t) => t.to === 'needs_review') ? 'needs_review' : 'fitted';
-    await tx.update(schema.uploadFile).set({ state, reason: null, errorCode: null, serials, finishedAt: new Date() }).where(eq(schema.uploadFile.id, file.id));
-    return { uploadFileId: file.id, state, reason: null, serials };
+    const finished = live.map((f) => {
+      const mine = targets.filter((t) => t.f === f);
+      const state: UploadFileState = mine.some((t) => t.to === 'needs_review') ? 'needs_review' : 'fitted';
+      return { id: f.file.id, state, serials: f.plan.parts.map((p) => p.serial) };
+    });
+    await tx.execute(sql`
+      update ${schema.uploadFile} set state = x.state, reason = null, error_code = null, serials = x.serials, finished_at = now()
+      from jsonb_to_recordset(${JSON.stringify(finished)}::jsonb) as x(id integer, state upload_file_state, serials text[])
+      where ${schema.uploadFile.id} = x.id`);
+    for (const f of finished) out.push({ uploadFileId: f.id, state: f.state, reason: null, serials: f.serials });
+    return out;
   });
 }
 

@@ -1,4 +1,4 @@
-import { inArray, sql } from 'drizzle-orm';
+import { inArray } from 'drizzle-orm';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
 import { schema, type DbOrTx } from '../../../../db/client';
 import { writeAudit } from '../../audit';
@@ -10,6 +10,8 @@ export interface StatusChange {
   to: PartStatus;
   /** Other columns to set with the status (location, reservation, bin). */
   set?: Partial<{ locationId: number | null; reservationId: string | null; binId: number | null }>;
+  /** This part's reason in the audit log, where it differs from the batch's. */
+  reason?: string;
 }
 
 export interface ChangedPart {
@@ -56,20 +58,32 @@ export async function changePartStatuses(
       { refused },
     );
   }
-  const out: ChangedPart[] = [];
+  // One UPDATE per distinct (status, columns) rather than one per part: batches run to hundreds.
+  const groups = new Map<string, { change: StatusChange; ids: number[] }>();
   for (const c of changes) {
+    const key = JSON.stringify([c.to, c.set ?? {}]);
+    const g = groups.get(key);
+    if (g) g.ids.push(c.partId);
+    else groups.set(key, { change: c, ids: [c.partId] });
+  }
+  const now = new Date();
+  for (const { change, ids: groupIds } of groups.values()) {
+    await tx
+      .update(schema.part)
+      .set({ status: change.to, ...change.set, updatedAt: now })
+      .where(inArray(schema.part.id, groupIds));
+  }
+  const out: ChangedPart[] = changes.map((c) => {
     const row = byId.get(c.partId)!;
-    const next = { status: c.to, ...c.set, updatedAt: new Date() };
-    await tx.update(schema.part).set(next).where(sql`${schema.part.id} = ${c.partId}`);
-    out.push({
+    return {
       partId: row.id,
       serial: row.serial,
       from: row.status,
       to: c.to,
       binId: c.set?.binId !== undefined ? c.set.binId : row.binId,
       locationId: c.set?.locationId !== undefined ? c.set.locationId : row.locationId,
-    });
-  }
+    };
+  });
   await writeAudit(
     tx,
     actor,
@@ -79,7 +93,7 @@ export async function changePartStatuses(
       subjectId: o.serial,
       before: { status: o.from, location_id: byId.get(o.partId)!.locationId, bin_id: byId.get(o.partId)!.binId, reservation_id: byId.get(o.partId)!.reservationId },
       after: { status: o.to, ...(changes[i].set ?? {}) },
-      reason: reason ?? null,
+      reason: changes[i].reason ?? reason ?? null,
     })),
   );
   return out;

@@ -66,36 +66,56 @@ export async function receiveSweepUpload({
       .insert(schema.upload)
       .values({ userId: actor.userId, stationTokenId: actor.stationId, tags: parsedTags })
       .returning();
-    const rows: ReceivedFile[] = [];
-    // Inserted one by one so that the same bytes twice in one request point at the first.
-    for (let i = 0; i < files.length; i++) {
-      const f = files[i];
+    // Two inserts, not one per file: first the files to fit or refuse, then the files whose
+    // bytes came earlier (before, or in this same request), pointing at that first copy.
+    const planned = files.map((f, i) => {
       const s = stored[i];
       const name = f.name.trim() || `file-${i + 1}`;
       const tooLarge = s.sizeBytes > MAX_SWEEP_FILE_BYTES;
-      const duplicateOf = tooLarge ? undefined : originalBySha.get(s.sha256);
       const reason = tooLarge
         ? `${name}: the file is ${s.sizeBytes} bytes, over the limit of ${MAX_SWEEP_FILE_BYTES} bytes (${MAX_SWEEP_FILE_BYTES / MIB} MiB). Expected a file of at most ${MAX_SWEEP_FILE_BYTES / MIB} MiB; split the sweeps into several files.`
         : null;
-      const [row] = await tx
+      return { name, s, tooLarge, reason, id: 0, copyOfIndex: -1 };
+    });
+    const firstIndexBySha = new Map<string, number>();
+    planned.forEach((p, i) => {
+      if (p.tooLarge || originalBySha.has(p.s.sha256)) return;
+      const first = firstIndexBySha.get(p.s.sha256);
+      if (first === undefined) firstIndexBySha.set(p.s.sha256, i);
+      else p.copyOfIndex = first;
+    });
+    const valuesOf = (p: (typeof planned)[number], duplicateOfId: number | null) => ({
+      uploadId: upload.id,
+      originalName: p.name,
+      sha256: p.s.sha256,
+      sizeBytes: p.s.sizeBytes,
+      storedPath: p.s.storedPath,
+      state: p.tooLarge ? ('rejected' as const) : ('queued' as const),
+      reason: p.reason,
+      errorCode: p.tooLarge ? 'too_large' : null,
+      duplicateOfId,
+      finishedAt: p.tooLarge ? new Date() : null,
+    });
+    const firstPass = planned.filter((p) => p.copyOfIndex < 0);
+    const secondPass = planned.filter((p) => p.copyOfIndex >= 0);
+    const firstIds = await tx
+      .insert(schema.uploadFile)
+      .values(firstPass.map((p) => valuesOf(p, p.tooLarge ? null : (originalBySha.get(p.s.sha256)?.id ?? null))))
+      .returning({ id: schema.uploadFile.id });
+    firstPass.forEach((p, i) => (p.id = firstIds[i].id));
+    if (secondPass.length) {
+      const secondIds = await tx
         .insert(schema.uploadFile)
-        .values({
-          uploadId: upload.id,
-          originalName: name,
-          sha256: s.sha256,
-          sizeBytes: s.sizeBytes,
-          storedPath: s.storedPath,
-          state: tooLarge ? 'rejected' : 'queued',
-          reason,
-          errorCode: tooLarge ? 'too_large' : null,
-          duplicateOfId: duplicateOf?.id ?? null,
-          finishedAt: tooLarge ? new Date() : null,
-        })
+        .values(secondPass.map((p) => valuesOf(p, planned[p.copyOfIndex].id)))
         .returning({ id: schema.uploadFile.id });
-      if (!tooLarge && duplicateOf === undefined) originalBySha.set(s.sha256, { id: row.id, state: 'queued' });
-      const state = tooLarge ? 'rejected' : (duplicateOf?.state ?? 'queued');
-      rows.push({ id: row.id, name, state, reason, duplicate_of: duplicateOf?.id ?? null });
+      secondPass.forEach((p, i) => (p.id = secondIds[i].id));
     }
+    const rows: ReceivedFile[] = planned.map((p) => {
+      const earlierCopy = p.tooLarge ? undefined : originalBySha.get(p.s.sha256);
+      const duplicateOf = earlierCopy?.id ?? (p.copyOfIndex >= 0 ? planned[p.copyOfIndex].id : null);
+      const state = p.tooLarge ? 'rejected' : (earlierCopy?.state ?? 'queued');
+      return { id: p.id, name: p.name, state, reason: p.reason, duplicate_of: duplicateOf };
+    });
     await writeAudit(tx, actor, {
       action: 'upload.receive',
       subjectType: 'upload',
