@@ -3,7 +3,8 @@
  * N noisy copies (0.3 % of IDSS, seeded) of the ngspice 9-curve × 61-point family
  * njf-medium are fitted by fitCurveFamily (level-1, as SciPy does) and by
  * /usr/bin/python3 scipy.optimize.least_squares(method='lm') from the same starting values.
- * Prints time per fit and the accuracy of both against the netlist's card, and the time per
+ * Prints time per fit and the accuracy of both against the netlist's card, the same fits
+ * with the library handed every data row instead of the compressed rows, and the time per
  * fit of extended='auto' on that level-1 family and on noisy copies of the RS/RD card
  * njf-series, with how often the RS/RD model was kept and how often the screen left it out.
  */
@@ -34,13 +35,13 @@ const seriesFamilies: CurveFamily[] = Array.from({ length: N }, (_, i) =>
 );
 
 /** Best of `rounds` passes over all families (the machine is shared; the minimum is the cost). */
-function timeJs(extended: 'never' | 'auto', rounds = 3, set: CurveFamily[] = families) {
-  for (const f of set) fitCurveFamily(f, { vdsTestV: 10, extended }); // warm-up
+function timeJs(extended: 'never' | 'auto', rounds = 3, set: CurveFamily[] = families, solverRows: 'compressed' | 'full' = 'compressed') {
+  for (const f of set) fitCurveFamily(f, { vdsTestV: 10, extended, solverRows }); // warm-up
   let best = Infinity;
   let results = [] as ReturnType<typeof fitCurveFamily>[];
   for (let r = 0; r < rounds; r++) {
     const t0 = performance.now();
-    results = set.map((f) => fitCurveFamily(f, { vdsTestV: 10, extended }));
+    results = set.map((f) => fitCurveFamily(f, { vdsTestV: 10, extended, solverRows }));
     best = Math.min(best, (performance.now() - t0) / set.length);
   }
   return { msPerFit: best, results };
@@ -58,9 +59,8 @@ function autoOutcome(results: ReturnType<typeof fitCurveFamily>[]) {
   return `RS/RD kept ${kept}/${results.length}, screened out ${screened}/${results.length}`;
 }
 
-/** The library's own cost: 2 iterations on 549 points whose model values and Jacobian rows are precomputed. */
-function timeLibraryAlone(rounds = 3) {
-  const n = pointsPerFamily;
+/** The library's own cost: 2 iterations on n rows whose model values and Jacobian rows are precomputed. */
+function timeLibraryAlone(n: number, rounds = 3) {
   const x = Float64Array.from({ length: n }, (_, i) => i);
   const y = Float64Array.from(x, (i) => Math.sin(i));
   const f = Float64Array.from(x, (i) => Math.sin(i) + 1e-3);
@@ -82,7 +82,9 @@ function timeLibraryAlone(rounds = 3) {
   return best;
 }
 
-const libraryMs = timeLibraryAlone();
+const libraryFullMs = timeLibraryAlone(pointsPerFamily);
+const libraryCompressedMs = timeLibraryAlone(4);
+const jsFullRows = timeJs('never', 3, families, 'full');
 const js = timeJs('never');
 const jsAuto = timeJs('auto');
 const jsAutoSeries = timeJs('auto', 3, seriesFamilies);
@@ -105,10 +107,10 @@ const request = {
     };
   }),
 };
-// Three SciPy runs interleaved with JS runs; each side keeps its best.
+// Five SciPy runs interleaved with JS runs; each side keeps its best (the machine is shared).
 let scipy: { scipy: string; seconds_per_fit: number; results: { params: number[] }[] } | null = null;
 let jsBest = js.msPerFit;
-for (let round = 0; round < 3; round++) {
+for (let round = 0; round < 5; round++) {
   const run = spawnSync('/usr/bin/python3', [SCRIPT], { input: JSON.stringify(request), encoding: 'utf8', maxBuffer: 1 << 26 });
   if (run.status !== 0) throw new Error(`SciPy run failed (apt-get install python3-scipy?): ${run.stderr}`);
   const next = JSON.parse(run.stdout);
@@ -130,7 +132,8 @@ const lines = [
   `fitCurveFamily extended='never' (level-1, like SciPy): ${jsBest.toFixed(3)} ms per fit, ` +
     `${(jsBest / (scipy.seconds_per_fit * 1e3)).toFixed(3)} × SciPy's time (target ≤ 0.25), ` +
     `library iterations mean ${(iterations.reduce((a, b) => a + b, 0) / N).toFixed(2)}`,
-  `  of which ml-levenberg-marquardt's own work (2 iterations, model precomputed): ${libraryMs.toFixed(3)} ms`,
+  `  ml-levenberg-marquardt's own work for 2 iterations (model precomputed): ${libraryCompressedMs.toFixed(3)} ms on the 4 compressed rows, ${libraryFullMs.toFixed(3)} ms on all ${pointsPerFamily} rows`,
+  `  the same fits handing the library all ${pointsPerFamily} rows (solverRows 'full'): ${jsFullRows.msPerFit.toFixed(3)} ms per fit`,
   `fitCurveFamily extended='auto' on ${FIXTURE} (level-1 card): ${jsAuto.msPerFit.toFixed(3)} ms per fit, ${autoOutcome(jsAuto.results)}`,
   `fitCurveFamily extended='auto' on ${SERIES_FIXTURE} (RS/RD card): ${jsAutoSeries.msPerFit.toFixed(3)} ms per fit, ${autoOutcome(jsAutoSeries.results)}`,
   'accuracy, RMS relative error against the card over all families (JS | SciPy):',

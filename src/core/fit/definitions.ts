@@ -26,6 +26,11 @@ export interface FitOptions {
   excludedPoints?: number[];
   /** 'auto' (default) keeps RS/RD only when the F-test says they help; see `fitCurveFamily`. */
   extended?: 'auto' | 'never' | 'always';
+  /**
+   * How the problem is handed to ml-levenberg-marquardt: 'compressed' (default) or every
+   * data row ('full'). Both give the same iterates; 'full' is kept to check that and to time it.
+   */
+  solverRows?: 'compressed' | 'full';
 }
 
 export type FitModel = 'level1' | 'level1+rs_rd';

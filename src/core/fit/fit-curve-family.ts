@@ -119,7 +119,7 @@ export function fitCurveFamily(family: CurveFamily, options: FitOptions): FitRes
   const scaling = scalingFor(start, points);
   const extended = options.extended ?? 'auto';
 
-  const simple = fitModel('level1', points, scaling, start, null);
+  const simple = fitModel('level1', points, scaling, start, null, options);
   let chosen = simple;
   let extendedTest: ExtendedModelTest | null = null;
   if (extended !== 'never' && points.n > 8) {
@@ -130,7 +130,7 @@ export function fitCurveFamily(family: CurveFamily, options: FitOptions): FitRes
     if (screen?.skip) {
       extendedTest = { ...screen.predicted, kept: false, screened: true, ...predicted };
     } else {
-      const full = fitModel('level1+rs_rd', points, scaling, start, simple.params);
+      const full = fitModel('level1+rs_rd', points, scaling, start, simple.params, options);
       extendedTest = { ...fTestTwoExtraParameters(simple.sseA2, full.sseA2, points.n, 5), screened: false, ...predicted };
       if (extended === 'always' || extendedTest.kept) chosen = full;
     }
@@ -169,6 +169,7 @@ function fitModel(
   s: Scaling,
   start: StartingValues,
   from: JfetParams | null,
+  options: FitOptions,
 ): ModelFit {
   const { n, vgsV, vdsV, idA } = points;
   const isExtended = model === 'level1+rs_rd';
@@ -222,7 +223,7 @@ function fitModel(
   }
   for (let k = 0; k < p; k++) initial[k] = Math.min(Math.max(initial[k], min[k]), max[k]);
 
-  const solution = solveLeastSquares({ pointCount: n, paramCount: p, y, evaluate, initial, min, max });
+  const solution = solveLeastSquares({ pointCount: n, paramCount: p, y, evaluate, initial, min, max }, { rows: options.solverRows ?? 'compressed' });
   const u = solution.u;
   const params: JfetParams = {
     vtoV: u[0] * s.vtoScaleV,

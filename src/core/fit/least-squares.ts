@@ -1,5 +1,5 @@
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
-import { invertSymmetricPositiveDefinite, normalMatrix } from './small-matrix.ts';
+import { choleskyFactor, invertSymmetricPositiveDefinite } from './small-matrix.ts';
 
 /** A scaled least-squares problem: minimise Σ (y − f(u))² over u within [min, max]. */
 export interface LeastSquaresProblem {
@@ -26,6 +26,8 @@ export interface LeastSquaresSolution {
 
 export interface LeastSquaresOptions {
   maxIterations?: number;
+  /** 'compressed' (default): q + 1 rows with the full problem's normal equations; 'full': all n rows. */
+  rows?: 'compressed' | 'full';
 }
 
 /** Library iterations per call; our own convergence test runs between calls. */
@@ -41,6 +43,14 @@ const PREDICTED_DECREASE_TOLERANCE = 1e-10;
  * `problem.evaluate`. That library stops only at an absolute SSE (errorTolerance) or at
  * maxIterations, so it is called a few iterations at a time and stopped here when the
  * Gauss–Newton predicted decrease (bound-active parameters held) is negligible.
+ *
+ * The library is handed the problem in compressed form: q + 1 rows (q free parameters) whose
+ * normal matrix, gradient and sum of squares equal those of the full n rows at every point it
+ * asks for — Jacobian rows R with RᵀR = JᵀJ (Cholesky), values c with Rᵀc = Jᵀr, and a last
+ * row carrying the rest of the SSE. Its damped steps, bound clipping and step acceptance
+ * depend on nothing else, so its iterates are those of the full problem (to rounding), while
+ * its own per-iteration work, which allocates per row, no longer grows with n. Where JᵀJ is
+ * singular the call is made again with the full rows.
  */
 export function solveLeastSquares(
   problem: LeastSquaresProblem,
@@ -50,21 +60,45 @@ export function solveLeastSquares(
   const maxIterations = options.maxIterations ?? 60;
   const f = new Float64Array(n);
   const jac = new Float64Array(n * p);
-  const cachedU = new Float64Array(p).fill(NaN);
-  const row: number[] = new Array(p).fill(0);
+  const residual = new Float64Array(n);
+  // Normal equations at the evaluated point: JᵀJ (p × p), Jᵀr and the SSE, one pass per point.
+  const h = new Float64Array(p * p);
+  const g = new Float64Array(p);
+  let sseHere = NaN;
+  const evaluatedAt = new Float64Array(p).fill(NaN);
 
   const ensure = (u: ArrayLike<number>) => {
     let same = true;
     for (let k = 0; k < p; k++) {
-      if (cachedU[k] !== u[k]) {
+      if (evaluatedAt[k] !== u[k]) {
         same = false;
         break;
       }
     }
     if (same) return;
     problem.evaluate(u, f, jac);
-    for (let k = 0; k < p; k++) cachedU[k] = u[k];
+    let sse = 0;
+    for (let i = 0; i < n; i++) {
+      const r = y[i] - f[i];
+      residual[i] = r;
+      sse += r * r;
+    }
+    // Column by column: long inner loops over the rows run fastest.
+    for (let a = 0; a < p; a++) {
+      let ga = 0;
+      for (let i = 0, ia = a; i < n; i++, ia += p) ga += jac[ia] * residual[i];
+      g[a] = ga;
+      for (let b = 0; b <= a; b++) {
+        let hab = 0;
+        for (let i = 0, ia = a, ib = b; i < n; i++, ia += p, ib += p) hab += jac[ia] * jac[ib];
+        h[a * p + b] = hab;
+        h[b * p + a] = hab;
+      }
+    }
+    sseHere = sse;
+    for (let k = 0; k < p; k++) evaluatedAt[k] = u[k];
   };
+
   // Parameters held on a bound (the gradient pushes them outward) are taken out of the
   // library's problem: clipping a coupled step would otherwise stall the others.
   let free = Array.from({ length: p }, (_, k) => k);
@@ -73,11 +107,14 @@ export function solveLeastSquares(
     for (let a = 0; a < free.length; a++) full[free[a]] = reduced[a];
     return full;
   };
-  const model = (reduced: number[]) => {
+
+  // The full hand-off: every data row.
+  const row: number[] = new Array(p).fill(0);
+  const fullModel = (reduced: number[]) => {
     ensure(expand(reduced));
     return (x: number) => f[x];
   };
-  const jacobian = (reduced: number[]) => {
+  const fullJacobian = (reduced: number[]) => {
     ensure(expand(reduced));
     const q = free.length;
     row.length = q;
@@ -87,12 +124,65 @@ export function solveLeastSquares(
       return row;
     };
   };
-  const x = new Float64Array(n);
-  for (let i = 0; i < n; i++) x[i] = i;
-  const data = { x, y };
+  const fullData = { x: Float64Array.from({ length: n }, (_, i) => i), y };
+
+  // The compressed hand-off (see above), rebuilt when the library asks at another point.
+  const compressedValues = new Float64Array(p + 1);
+  const compressedRows: number[][] = Array.from({ length: p + 1 }, () => new Array<number>(p).fill(0));
+  const compressedAt = new Float64Array(p).fill(NaN);
+  const hFree = new Float64Array(p * p);
+  const lFree = new Float64Array(p * p);
+  let compressionFailed = false;
+  const compress = (reduced: number[]) => {
+    const q = free.length;
+    let same = true;
+    for (let a = 0; a < q; a++) {
+      if (compressedAt[a] !== reduced[a]) {
+        same = false;
+        break;
+      }
+    }
+    if (same) return;
+    ensure(expand(reduced));
+    for (let a = 0; a < q; a++) compressedAt[a] = reduced[a];
+    for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) hFree[a * q + b] = h[free[a] * p + free[b]];
+    const l = choleskyFactor(hFree, q, lFree);
+    for (const r of compressedRows) {
+      r.length = q;
+      r.fill(0);
+    }
+    if (!l) {
+      // Right SSE, no slope: the call is repeated with the full rows.
+      compressionFailed = true;
+      compressedValues.fill(0);
+      compressedValues[q] = -Math.sqrt(sseHere);
+      return;
+    }
+    // R = Lᵀ; c solves L·c = Jᵀr (that is Rᵀ·c = Jᵀr). The library's residual is
+    // y − value with y = 0, so each value is −c.
+    let explained = 0;
+    for (let a = 0; a < q; a++) {
+      let v = g[free[a]];
+      for (let b = 0; b < a; b++) v += l[a * q + b] * compressedValues[b];
+      const c = v / l[a * q + a];
+      explained += c * c;
+      compressedValues[a] = -c;
+      for (let b = a; b < q; b++) compressedRows[a][b] = l[b * q + a];
+    }
+    compressedValues[q] = -Math.sqrt(Math.max(sseHere - explained, 0));
+  };
+  const compressedModel = (reduced: number[]) => {
+    compress(reduced);
+    return (x: number) => compressedValues[x];
+  };
+  const compressedJacobian = (reduced: number[]) => {
+    compress(reduced);
+    return (x: number) => compressedRows[x];
+  };
 
   let u = problem.initial.slice();
-  let sse = sumOfSquares(u);
+  ensure(u);
+  let sse = sseHere;
   let damping = 1e-3;
   let iterations = 0;
   // At least one library call: starting values are never the optimum.
@@ -101,15 +191,24 @@ export function solveLeastSquares(
   while (!converged && iterations < maxIterations) {
     free = check.atBound.flatMap((b, k) => (b ? [] : [k]));
     for (let k = 0; k < p; k++) full[k] = u[k];
-    const r = levenbergMarquardt(data, model, {
+    const q = free.length;
+    const callOptions = {
       initialValues: free.map((k) => u[k]),
       damping,
       maxIterations: Math.min(ITERATIONS_PER_CALL, maxIterations - iterations),
       errorTolerance: 0,
       minValues: free.map((k) => problem.min[k]),
       maxValues: free.map((k) => problem.max[k]),
-      jacobianFunction: jacobian,
-    });
+    };
+    compressionFailed = options.rows === 'full';
+    compressedAt.fill(NaN);
+    let r = compressionFailed
+      ? null
+      : levenbergMarquardt({ x: Float64Array.from({ length: q + 1 }, (_, i) => i), y: new Float64Array(q + 1) }, compressedModel, {
+          ...callOptions,
+          jacobianFunction: compressedJacobian,
+        });
+    if (compressionFailed || !r) r = levenbergMarquardt(fullData, fullModel, { ...callOptions, jacobianFunction: fullJacobian });
     iterations += r.iterations;
     if (r.parameterError < sse) {
       u = Array.from(expand(r.parameterValues));
@@ -122,30 +221,11 @@ export function solveLeastSquares(
     converged = check.predictedDecrease <= PREDICTED_DECREASE_TOLERANCE * sse + n * 1e-28;
   }
   ensure(u);
-  return {
-    u,
-    sse,
-    iterations,
-    converged,
-    atBound: check.atBound,
-    normalInverse: invertSymmetricPositiveDefinite(normalMatrix(jac, n, p), p),
-  };
-
-  function sumOfSquares(v: number[]): number {
-    ensure(v);
-    let s = 0;
-    for (let i = 0; i < n; i++) s += (y[i] - f[i]) ** 2;
-    return s;
-  }
+  return { u, sse, iterations, converged, atBound: check.atBound, normalInverse: invertSymmetricPositiveDefinite(h, p) };
 
   /** Gauss–Newton predicted SSE decrease over the parameters that are free to move. */
   function gaussNewtonCheck(v: number[]) {
     ensure(v);
-    const g = new Float64Array(p);
-    for (let i = 0, b = 0; i < n; i++, b += p) {
-      const r = y[i] - f[i];
-      for (let k = 0; k < p; k++) g[k] += jac[b + k] * r;
-    }
     const atBound: boolean[] = new Array(p);
     const free: number[] = [];
     for (let k = 0; k < p; k++) {
@@ -155,7 +235,6 @@ export function solveLeastSquares(
     }
     const q = free.length;
     if (q === 0) return { predictedDecrease: 0, atBound };
-    const h = normalMatrix(jac, n, p);
     const hFree = new Float64Array(q * q);
     for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) hFree[a * q + b] = h[free[a] * p + free[b]];
     const inv = invertSymmetricPositiveDefinite(hFree, q);

@@ -23,6 +23,14 @@ export function prepareCurves(family: CurveFamily, excludedPoints: readonly numb
     throw new CurveFamilyShapeError('The curve family has no curves; upload a sweep with at least one VGS step.');
   }
   const excluded = new Set(excludedPoints);
+  // One buffer per column for the whole family, a view per curve: typed-array construction
+  // costs far more than a view, and a fit prepares dozens of curves.
+  let total = 0;
+  for (const curve of family.curves) total += curve.points?.vdsV?.length ?? 0;
+  const vdsAll = new Float64Array(total);
+  const idAll = new Float64Array(total);
+  const flatAll = new Int32Array(total);
+  const includedAll = new Uint8Array(total);
   let flat = 0;
   return family.curves.map((curve, c) => {
     const { vdsV, idA } = curve.points;
@@ -34,18 +42,20 @@ export function prepareCurves(family: CurveFamily, excludedPoints: readonly numb
     let sorted = true;
     for (let i = 1; i < vdsV.length && sorted; i++) sorted = vdsV[i] >= vdsV[i - 1];
     const n = vdsV.length;
-    const order = new Array<number>(n);
-    for (let i = 0; i < n; i++) order[i] = i;
-    if (!sorted) order.sort((a, b) => vdsV[a] - vdsV[b]);
+    let order: number[] | null = null;
+    if (!sorted) {
+      order = Array.from({ length: n }, (_, i) => i);
+      order.sort((a, b) => vdsV[a] - vdsV[b]);
+    }
     const prepared: PreparedCurve = {
       vgsV: curve.vgsV,
-      vdsV: new Float64Array(n),
-      idA: new Float64Array(n),
-      flatIndex: new Int32Array(n),
-      included: new Uint8Array(n),
+      vdsV: vdsAll.subarray(flat, flat + n),
+      idA: idAll.subarray(flat, flat + n),
+      flatIndex: flatAll.subarray(flat, flat + n),
+      included: includedAll.subarray(flat, flat + n),
     };
     for (let k = 0; k < n; k++) {
-      const i = order[k];
+      const i = order ? order[k] : k;
       if (!Number.isFinite(vdsV[i]) || !Number.isFinite(idA[i])) {
         throw new CurveFamilyShapeError(`Curve ${c}, point ${i} is not a finite number; fix or drop it before fitting.`);
       }

@@ -3,9 +3,12 @@
  * Float64Array storage. Pure arithmetic, no allocation beyond the returned arrays.
  */
 
-/** Inverse of the SPD matrix `a` (p × p) by Cholesky; null when not positive definite. */
-export function invertSymmetricPositiveDefinite(a: Float64Array, p: number): Float64Array | null {
-  const l = new Float64Array(p * p);
+/**
+ * Lower-triangular L with L·Lᵀ = a (p × p, SPD) by Cholesky, written into `l` (p × p or
+ * larger); null when not positive definite.
+ */
+export function choleskyFactor(a: Float64Array, p: number, l: Float64Array = new Float64Array(p * p)): Float64Array | null {
+  l.fill(0, 0, p * p);
   for (let i = 0; i < p; i++) {
     for (let j = 0; j <= i; j++) {
       let s = a[i * p + j];
@@ -18,6 +21,13 @@ export function invertSymmetricPositiveDefinite(a: Float64Array, p: number): Flo
       }
     }
   }
+  return l;
+}
+
+/** Inverse of the SPD matrix `a` (p × p) by Cholesky; null when not positive definite. */
+export function invertSymmetricPositiveDefinite(a: Float64Array, p: number): Float64Array | null {
+  const l = choleskyFactor(a, p);
+  if (!l) return null;
   // inv(L) column by column, then inv(A) = inv(L)ᵀ·inv(L).
   const li = new Float64Array(p * p);
   for (let j = 0; j < p; j++) {
@@ -38,18 +48,4 @@ export function invertSymmetricPositiveDefinite(a: Float64Array, p: number): Flo
     }
   }
   return inv;
-}
-
-/** Jᵀ·J (p × p) of a row-major n × p Jacobian. */
-export function normalMatrix(jac: Float64Array, n: number, p: number): Float64Array {
-  const h = new Float64Array(p * p);
-  for (let i = 0; i < n; i++) {
-    const base = i * p;
-    for (let a = 0; a < p; a++) {
-      const ja = jac[base + a];
-      for (let b = 0; b <= a; b++) h[a * p + b] += ja * jac[base + b];
-    }
-  }
-  for (let a = 0; a < p; a++) for (let b = 0; b < a; b++) h[b * p + a] = h[a * p + b];
-  return h;
 }

@@ -28,6 +28,7 @@ export function estimateStartingValues(curves: readonly PreparedCurve[]): Starti
   for (const c of curves) for (let k = 0; k < c.vdsV.length; k++) vdsMaxV = Math.max(vdsMaxV, c.vdsV[k]);
   if (!(vdsMaxV > 0)) return null;
 
+  const conductingCurveCount = countConductingCurves(curves);
   let vtoV = NaN;
   let result: StartingValues | null = null;
   for (let pass = 0; pass < 3; pass++) {
@@ -67,7 +68,7 @@ export function estimateStartingValues(curves: readonly PreparedCurve[]): Starti
       vtoV,
       betaAPerV2,
       lambdaPerV: interceptSum > 0 ? slopeSum / interceptSum : 0,
-      conductingCurveCount: countConductingCurves(curves),
+      conductingCurveCount,
       saturatedCurveCount,
       saturationPointCount,
     };
