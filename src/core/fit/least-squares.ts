@@ -68,14 +68,7 @@ export function solveLeastSquares(
   const evaluatedAt = new Float64Array(p).fill(NaN);
 
   const ensure = (u: ArrayLike<number>) => {
-    let same = true;
-    for (let k = 0; k < p; k++) {
-      if (evaluatedAt[k] !== u[k]) {
-        same = false;
-        break;
-      }
-    }
-    if (same) return;
+    if (sameValues(evaluatedAt, u, p)) return;
     problem.evaluate(u, f, jac);
     let sse = 0;
     for (let i = 0; i < n; i++) {
@@ -135,14 +128,7 @@ export function solveLeastSquares(
   let compressionFailed = false;
   const compress = (reduced: number[]) => {
     const q = free.length;
-    let same = true;
-    for (let a = 0; a < q; a++) {
-      if (compressedAt[a] !== reduced[a]) {
-        same = false;
-        break;
-      }
-    }
-    if (same) return;
+    if (sameValues(compressedAt, reduced, q)) return;
     ensure(expand(reduced));
     for (let a = 0; a < q; a++) compressedAt[a] = reduced[a];
     for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) hFree[a * q + b] = h[free[a] * p + free[b]];
@@ -245,4 +231,10 @@ export function solveLeastSquares(
     }
     return { predictedDecrease, atBound };
   }
+}
+
+/** Whether the first `count` entries of a and b are identical. */
+function sameValues(a: ArrayLike<number>, b: ArrayLike<number>, count: number): boolean {
+  for (let k = 0; k < count; k++) if (a[k] !== b[k]) return false;
+  return true;
 }
