@@ -1,6 +1,6 @@
 /**
  * End-to-end intake speed: `npx tsx scripts/bench-fit-e2e.ts [--files 10000] [--workers 2]
- * [--per-request 50] [--parallel 4] [--build]`. Starts its own server and fitting workers on
+ * [--per-request 50] [--parallel 4] [--build] [--profile DIR]`. Starts its own server and fitting workers on
  * a bench database (loopback only), uploads N distinct simulated sweep files through
  * POST /api/sweeps with a station token, waits until every file has a stored fit (or a
  * reason), and prints sweeps per second, total seconds and peak memory (VmHWM of each
@@ -66,10 +66,21 @@ const logs = path.join(runDir, 'logs');
 const children: ChildProcess[] = [];
 children.push(startChild('web', process.execPath, [path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs')], env, path.join(logs, 'web.log')));
 // One at a time: pg-boss's queue creation can deadlock when several processes start at once.
+// --profile DIR writes a V8 CPU profile of each worker there (node --cpu-prof, on exit).
+const profileAt = process.argv.indexOf('--profile');
+const profileDir = profileAt > 0 ? path.resolve(process.argv[profileAt + 1]) : null;
 for (let i = 0; i < WORKERS; i++) {
   const log = path.join(logs, `worker${i}.log`);
-  children.push(startChild(`worker${i}`, tsx, ['src/worker.ts'], env, log));
-  for (let k = 0; k < 150 && !(fs.existsSync(log) && fs.readFileSync(log, 'utf8').includes('worker ready')); k++) await new Promise((r) => setTimeout(r, 200));
+  const worker = profileDir
+    ? startChild(`worker${i}`, process.execPath, ['--cpu-prof', `--cpu-prof-dir=${profileDir}`, '--import', 'tsx', 'src/worker.ts'], env, log)
+    : startChild(`worker${i}`, tsx, ['src/worker.ts'], env, log);
+  children.push(worker);
+  const ready = () => fs.existsSync(log) && fs.readFileSync(log, 'utf8').includes('worker ready');
+  for (let k = 0; k < 150 && !ready() && worker.exitCode === null; k++) await new Promise((r) => setTimeout(r, 200));
+  if (!ready()) {
+    for (const c of children) c.kill('SIGTERM');
+    throw new Error(`worker ${i} did not start; its log (${log}) says:\n${fs.existsSync(log) ? fs.readFileSync(log, 'utf8').slice(-2000) : '(nothing)'}`);
+  }
 }
 const baseUrl = `http://127.0.0.1:${PORT}`;
 await waitForHttp(`${baseUrl}/api/health`, 120_000);
@@ -98,7 +109,42 @@ function peakKb(pid: number): number {
   return kb;
 }
 
+/** CPU seconds (user + system) of a process and its descendants, from /proc. */
+function cpuSeconds(pid: number): number {
+  let ticks = 0;
+  try {
+    const stat = fs.readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    ticks = Number(fields[11]) + Number(fields[12]);
+    for (const task of fs.readdirSync(`/proc/${pid}/task`)) {
+      const kids = fs.readFileSync(`/proc/${pid}/task/${task}/children`, 'utf8').trim();
+      for (const k of kids ? kids.split(/\s+/) : []) ticks += cpuSeconds(Number(k)) * 100;
+    }
+  } catch {
+    /* process gone */
+  }
+  return ticks / 100;
+}
+
+/** CPU seconds of every PostgreSQL process now running (the cluster's own and its backends). */
+function postgresCpuSeconds(): number {
+  let total = 0;
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      if (fs.readFileSync(`/proc/${entry}/comm`, 'utf8').trim() !== 'postgres') continue;
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
+      const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      total += Number(fields[11]) + Number(fields[12]);
+    } catch {
+      /* process gone */
+    }
+  }
+  return total / 100;
+}
+
 const pool = getPool();
+const cpuBefore = { children: children.map((c) => cpuSeconds(c.pid!)), postgres: postgresCpuSeconds(), client: process.cpuUsage() };
 const started = performance.now();
 let posted = 0;
 let uploadMs = 0;
@@ -143,6 +189,9 @@ const totalS = (performance.now() - started) / 1000;
 const states = await pool.query(`select state, count(*)::int as n from upload_file where original_name like 'BENCH-%' group by state order by state`);
 const fits = await pool.query(`select count(*)::int as n, count(*) filter (where model = 'level1+rs_rd')::int as extended from fit f join part p on p.id = f.part_id where p.serial like 'BENCH-%'`);
 const peaks = children.map((c, i) => ({ name: i === 0 ? 'server' : `worker ${i}`, mb: peakKb(c.pid!) / 1024 }));
+const cpu = children.map((c, i) => ({ name: i === 0 ? 'server' : `worker ${i}`, s: cpuSeconds(c.pid!) - cpuBefore.children[i] }));
+const postgresCpu = postgresCpuSeconds() - cpuBefore.postgres;
+const clientCpu = process.cpuUsage(cpuBefore.client);
 
 console.log('\n[bench] end-to-end intake');
 console.log(`  files               ${FILES} (${(bytes / 1e6).toFixed(1)} MB), ${PER_REQUEST} per request, ${PARALLEL} requests in flight`);
@@ -152,6 +201,7 @@ console.log(`  all files finished  ${totalS.toFixed(1)} s  →  ${(FILES / total
 console.log(`  stored fits         ${fits.rows[0].n} (${fits.rows[0].extended} kept RS/RD)`);
 console.log(`  file states         ${states.rows.map((r) => `${r.state} ${r.n}`).join(', ')}`);
 console.log(`  peak memory (VmHWM) ${peaks.map((p) => `${p.name} ${p.mb.toFixed(0)} MB`).join(', ')}`);
+console.log(`  CPU during the run  ${cpu.map((c) => `${c.name} ${c.s.toFixed(1)} s`).join(', ')}, PostgreSQL ${postgresCpu.toFixed(1)} s (processes still running), this uploading client ${((clientCpu.user + clientCpu.system) / 1e6).toFixed(1)} s`);
 console.log(`  target              ≤ 60 s for 10 000 files: ${FILES === 10_000 ? (totalS <= 60 ? 'met' : 'NOT met') : 'n/a (other file count)'}`);
 
 for (const c of children) c.kill('SIGTERM');

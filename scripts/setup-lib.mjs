@@ -209,8 +209,10 @@ export function startChild(name, cmd, args, env, logFile) {
   if (logFile) {
     fs.mkdirSync(path.dirname(logFile), { recursive: true });
     const out = fs.createWriteStream(logFile);
-    child.stdout.pipe(out);
-    child.stderr.pipe(out);
+    // Both streams share the file: neither may close it while the other still writes.
+    child.stdout.pipe(out, { end: false });
+    child.stderr.pipe(out, { end: false });
+    child.on('close', () => out.end());
     return child;
   }
   const prefix = (stream, out) =>

@@ -1,5 +1,6 @@
 import type { DbOrTx } from '../../db/client';
 import { schema } from '../../db/client';
+import { insertRowsAsJson } from '../../db/insert-rows-as-json';
 import type { Actor } from './identity';
 
 export interface AuditEntry {
@@ -15,7 +16,9 @@ export interface AuditEntry {
 export async function writeAudit(tx: DbOrTx, actor: Actor | null, entries: AuditEntry | AuditEntry[]): Promise<void> {
   const list = Array.isArray(entries) ? entries : [entries];
   if (list.length === 0) return;
-  await tx.insert(schema.auditLog).values(
+  await insertRowsAsJson(
+    tx,
+    schema.auditLog,
     list.map((e) => ({
       actorUserId: actor?.userId ?? null,
       actorStationId: actor?.stationId ?? null,

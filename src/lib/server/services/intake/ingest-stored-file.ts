@@ -4,6 +4,7 @@ import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
 import { parseSweepFile, SweepFileError, type ParsedSweepFile } from '../../../../core/sweep-file';
 import { getDb, schema } from '../../../../db/client';
+import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
 import type { Actor } from '../../identity';
 import { readStoredUpload } from '../../storage/uploads-fs';
@@ -364,23 +365,23 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
       if (refusal) throw new IngestRejection('part_unavailable', `${f.file.originalName}: part ${p.serial} ${refusal}.`);
     }
 
-    const sweeps = await tx
-      .insert(schema.sweep)
-      .values(
-        entries.map(({ f, p }) => ({
-          partId: partBySerial.get(p.serial)!.id,
-          uploadFileId: f.file.id,
-          indexInFile: p.indexInFile,
-          vgsStepsV: p.curves.map((c) => c.vgs_v),
-          curves: p.curves,
-          pointCount: p.pointCount,
-          temperatureC: p.temperatureC,
-          station: p.station,
-          operator: p.operator,
-          metadata: p.metadata,
-        })),
-      )
-      .returning({ id: schema.sweep.id, partId: schema.sweep.partId });
+    const sweeps = await insertRowsAsJson(
+      tx,
+      schema.sweep,
+      entries.map(({ f, p }) => ({
+        partId: partBySerial.get(p.serial)!.id,
+        uploadFileId: f.file.id,
+        indexInFile: p.indexInFile,
+        vgsStepsV: p.curves.map((c) => c.vgs_v),
+        curves: p.curves,
+        pointCount: p.pointCount,
+        temperatureC: p.temperatureC,
+        station: p.station,
+        operator: p.operator,
+        metadata: p.metadata,
+      })),
+      ['id', 'partId'],
+    );
     const sweepByPart = new Map(sweeps.map((s) => [s.partId, s.id]));
 
     // A clean fit goes to accepted where the part's state allows; otherwise a person looks.
@@ -390,14 +391,14 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
       const to: PartStatus = part.status === wanted || checkPartTransition(part.status, wanted).ok ? wanted : 'needs_review';
       return { f, p, part, to };
     });
-    const fits = await tx
-      .insert(schema.fit)
-      .values(
-        targets.map(({ f, p, part, to }) =>
-          fitColumns(p.fit, f.plan.type.channel, { sweepId: sweepByPart.get(part.id)!, partId: part.id }, to === 'accepted' ? 'auto_accepted' : 'needs_review'),
-        ),
-      )
-      .returning({ id: schema.fit.id, partId: schema.fit.partId });
+    const fits = await insertRowsAsJson(
+      tx,
+      schema.fit,
+      targets.map(({ f, p, part, to }) =>
+        fitColumns(p.fit, f.plan.type.channel, { sweepId: sweepByPart.get(part.id)!, partId: part.id }, to === 'accepted' ? 'auto_accepted' : 'needs_review'),
+      ),
+      ['id', 'partId'],
+    );
     const fitByPart = new Map(fits.map((f) => [f.partId, f.id]));
 
     const currentFits = targets.map(({ p, part }) => ({ id: part.id, fit_id: fitByPart.get(part.id)!, lot_id: p.lotId }));
