@@ -64,11 +64,16 @@ const station = await createStationToken({ actor: { userId: null, stationId: nul
 
 const logs = path.join(runDir, 'logs');
 const children: ChildProcess[] = [];
-children.push(startChild('web', process.execPath, [path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs')], env, path.join(logs, 'web.log')));
 // One at a time: pg-boss's queue creation can deadlock when several processes start at once.
-// --profile DIR writes a V8 CPU profile of each worker there (node --cpu-prof, on exit).
+// --profile DIR writes a V8 CPU profile of the server and each worker there (node --cpu-prof, on exit).
 const profileAt = process.argv.indexOf('--profile');
 const profileDir = profileAt > 0 ? path.resolve(process.argv[profileAt + 1]) : null;
+// The server exits on SIGTERM with process.exit so that its profile is written.
+const exitOnTerm = ['--import', "data:text/javascript,process.on('SIGTERM',()=>process.exit(0))"];
+const serverEntry = path.join(ROOT, BUILD_DIR, 'server', 'entry.mjs');
+children.push(
+  startChild('web', process.execPath, profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`, ...exitOnTerm, serverEntry] : [serverEntry], env, path.join(logs, 'web.log')),
+);
 for (let i = 0; i < WORKERS; i++) {
   const log = path.join(logs, `worker${i}.log`);
   const worker = profileDir

@@ -1,6 +1,7 @@
 import { and, inArray, isNull, ne } from 'drizzle-orm';
 import { MAX_SWEEP_FILE_BYTES } from '../../../../core/sweep-file';
-import { getDb, schema } from '../../../../db/client';
+import { getDb, schema, type DbOrTx } from '../../../../db/client';
+import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
@@ -98,17 +99,17 @@ export async function receiveSweepUpload({
     });
     const firstPass = planned.filter((p) => p.copyOfIndex < 0);
     const secondPass = planned.filter((p) => p.copyOfIndex >= 0);
-    const firstIds = await tx
-      .insert(schema.uploadFile)
-      .values(firstPass.map((p) => valuesOf(p, p.tooLarge ? null : (originalBySha.get(p.s.sha256)?.id ?? null))))
-      .returning({ id: schema.uploadFile.id });
-    firstPass.forEach((p, i) => (p.id = firstIds[i].id));
+    const firstIds = await insertUploadFiles(
+      tx,
+      firstPass.map((p) => valuesOf(p, p.tooLarge ? null : (originalBySha.get(p.s.sha256)?.id ?? null))),
+    );
+    firstPass.forEach((p, i) => (p.id = firstIds[i]));
     if (secondPass.length) {
-      const secondIds = await tx
-        .insert(schema.uploadFile)
-        .values(secondPass.map((p) => valuesOf(p, planned[p.copyOfIndex].id)))
-        .returning({ id: schema.uploadFile.id });
-      secondPass.forEach((p, i) => (p.id = secondIds[i].id));
+      const secondIds = await insertUploadFiles(
+        tx,
+        secondPass.map((p) => valuesOf(p, planned[p.copyOfIndex].id)),
+      );
+      secondPass.forEach((p, i) => (p.id = secondIds[i]));
     }
     const rows: ReceivedFile[] = planned.map((p) => {
       const earlierCopy = p.tooLarge ? undefined : originalBySha.get(p.s.sha256);
@@ -131,4 +132,22 @@ export async function receiveSweepUpload({
     await boss.insert(toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id }, retryLimit: 3, retryDelay: 5 })));
   }
   return { upload_id: upload.id, files: rows };
+}
+
+/**
+ * Inserts upload_file rows in one statement and returns their ids in the order given. Rows
+ * are matched back by bytes and name: two rows alike in both are alike in every column, so
+ * either id serves either.
+ */
+async function insertUploadFiles(tx: DbOrTx, rows: (typeof schema.uploadFile.$inferInsert)[]): Promise<number[]> {
+  const key = (sha: string, name: string) => `${sha}/${name}`;
+  const stored = await insertRowsAsJson(tx, schema.uploadFile, rows, ['id', 'sha256', 'originalName']);
+  const idsByKey = new Map<string, number[]>();
+  for (const r of stored.sort((a, b) => a.id - b.id)) {
+    const k = key(r.sha256, r.originalName);
+    const list = idsByKey.get(k);
+    if (list) list.push(r.id);
+    else idsByKey.set(k, [r.id]);
+  }
+  return rows.map((r) => idsByKey.get(key(r.sha256, r.originalName))!.shift()!);
 }
