@@ -58,6 +58,7 @@ if (process.argv.includes('--build') || !fs.existsSync(path.join(ROOT, BUILD_DIR
 
 const { getDb, closeDb, getPool } = await import('../src/db/client');
 const { createStationToken } = await import('../src/lib/server/services/stations/create');
+const { FIT_BATCH_SIZE } = await import('../src/lib/server/jobs/fit-upload-file');
 const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/lib/server/services/intake/simulated-sweep');
 void getDb;
 const station = await createStationToken({ actor: { userId: null, stationId: null, label: 'bench', permissions: ['stations:manage'] }, input: { name: 'bench station' } });
@@ -200,7 +201,7 @@ const clientCpu = process.cpuUsage(cpuBefore.client);
 
 console.log('\n[bench] end-to-end intake');
 console.log(`  files               ${FILES} (${(bytes / 1e6).toFixed(1)} MB), ${PER_REQUEST} per request, ${PARALLEL} requests in flight`);
-console.log(`  fitting workers     ${WORKERS} processes × ${process.env.SLUICE_FIT_LOOPS ?? 2} loops, batches of 25 jobs`);
+console.log(`  fitting workers     ${WORKERS} processes × ${process.env.SLUICE_FIT_LOOPS ?? 2} loops, batches of ${FIT_BATCH_SIZE} jobs`);
 console.log(`  all POSTs answered  ${(uploadMs / 1000).toFixed(1)} s`);
 console.log(`  all files finished  ${totalS.toFixed(1)} s  →  ${(FILES / totalS).toFixed(0)} sweeps per second`);
 console.log(`  stored fits         ${fits.rows[0].n} (${fits.rows[0].extended} kept RS/RD)`);

@@ -6,7 +6,7 @@ export interface FitUploadFileJob {
 }
 
 /** Jobs fetched per round trip: enough to keep a worker busy, small enough to retry cheaply. */
-export const FIT_BATCH_SIZE = 25;
+export const FIT_BATCH_SIZE = 50;
 
 /**
  * Works a batch of fitting jobs: every file is parsed and fitted, then the batch is stored a
