@@ -24,6 +24,28 @@ export function getPool(): pg.Pool {
   return pool!;
 }
 
+/**
+ * A transaction on one pooled connection, handing over both the Drizzle handle and the raw
+ * client, for a library that writes through a client of its own (pg-boss queues jobs in the
+ * caller's transaction this way). Rolled back when `work` throws.
+ */
+export async function transactionWithClient<T>(work: (tx: Database, client: pg.PoolClient) => Promise<T>): Promise<T> {
+  const client = await getPool().connect();
+  let broken = false;
+  try {
+    await client.query('begin');
+    const result = await work(drizzle(client, { schema }) as unknown as Database, client);
+    await client.query('commit');
+    return result;
+  } catch (err) {
+    // A connection that cannot even roll back is dropped from the pool, not reused.
+    await client.query('rollback').catch(() => (broken = true));
+    throw err;
+  } finally {
+    client.release(broken);
+  }
+}
+
 export async function closeDb(): Promise<void> {
   await pool?.end();
   pool = undefined;

@@ -78,9 +78,10 @@ export async function ingestStoredFile(uploadFileId: number): Promise<IngestOutc
  * with the same serial or the same bytes in one), which saves the database round trips that
  * dominate a busy intake. A file that cannot be used is marked `rejected` with a reason naming
  * the file, line and column, and stores nothing else; when storing refuses one file of a
- * group, the group is rolled back and stored file by file, so the others still land. Safe to
- * run twice: a file that is no longer `queued` is left as it is. Outcomes come back in the
- * order of `uploadFileIds`.
+ * group, the group is rolled back and stored file by file, so the others still land. An
+ * unexpected error on one file (a bug, a lost connection) is thrown once the rest is stored,
+ * so the job is retried for it alone. Safe to run twice: a file that is no longer `queued` is
+ * left as it is. Outcomes come back in the order of `uploadFileIds`.
  */
 export async function ingestStoredFiles(uploadFileIds: number[]): Promise<IngestOutcome[]> {
   const ids = [...new Set(uploadFileIds)];
@@ -95,6 +96,8 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
   const outcomes = new Map<number, IngestOutcome>();
   const lots = lotLookup();
   const planned: PlannedFile[] = [];
+  // Unexpected errors (not a reason to refuse the file): kept while the others go on.
+  const failures: { uploadFileId: number; error: unknown }[] = [];
 
   for (const id of ids) {
     const row = rowById.get(id);
@@ -123,12 +126,20 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
       planned.push({ file, actor, plan: await planFile(bytes, file.originalName, tags, defaultStation, lots) });
     } catch (err) {
       if (err instanceof SweepFileError || err instanceof IngestRejection) outcomes.set(id, await markRejected(file.id, err.message, err.code, actor));
-      else throw err;
+      else failures.push({ uploadFileId: id, error: err });
     }
   }
 
   for (const group of storageGroups(planned)) {
-    for (const outcome of await storeGroup(group)) outcomes.set(outcome.uploadFileId, outcome);
+    for (const outcome of await storeGroup(group, failures)) outcomes.set(outcome.uploadFileId, outcome);
+  }
+  if (failures.length) {
+    // The rest of the batch is stored; the job is retried for these (done files are skipped).
+    const first = failures[0].error;
+    throw new Error(
+      `upload file(s) ${failures.map((f) => f.uploadFileId).join(', ')} could not be ingested: ${first instanceof Error ? first.message : String(first)}`,
+      { cause: first },
+    );
   }
   return uploadFileIds.map((id) => outcomes.get(id)!);
 }
@@ -161,16 +172,22 @@ function storageGroups(planned: PlannedFile[]): PlannedFile[][] {
   return groups.map((g) => g.files);
 }
 
-/** Stores a group in one transaction; when that refuses a file, stores each file alone. */
-async function storeGroup(group: PlannedFile[]): Promise<IngestOutcome[]> {
+/**
+ * Stores a group in one transaction. When that fails, stores each file alone, so that one
+ * refused file (or one that meets an unexpected error, kept in `failures`) holds up no other.
+ */
+async function storeGroup(group: PlannedFile[], failures: { uploadFileId: number; error: unknown }[]): Promise<IngestOutcome[]> {
   try {
     return await persistPlans(group);
   } catch (err) {
-    if (!(err instanceof IngestRejection)) throw err;
-    if (group.length === 1) return [await markRejected(group[0].file.id, err.message, err.code, group[0].actor)];
-    const out: IngestOutcome[] = [];
-    for (const f of group) out.push(...(await storeGroup([f])));
-    return out;
+    if (group.length > 1) {
+      const out: IngestOutcome[] = [];
+      for (const f of group) out.push(...(await storeGroup([f], failures)));
+      return out;
+    }
+    if (err instanceof IngestRejection) return [await markRejected(group[0].file.id, err.message, err.code, group[0].actor)];
+    failures.push({ uploadFileId: group[0].file.id, error: err });
+    return [];
   }
 }
 

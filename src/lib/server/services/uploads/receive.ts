@@ -1,6 +1,6 @@
 import { and, inArray, isNull, ne } from 'drizzle-orm';
 import { MAX_SWEEP_FILE_BYTES } from '../../../../core/sweep-file';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
+import { getDb, schema, transactionWithClient, type DbOrTx } from '../../../../db/client';
 import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
 import { AppError } from '../../errors';
@@ -62,7 +62,10 @@ export async function receiveSweepUpload({
   const originalBySha = new Map<string, { id: number; state: ReceivedFile['state'] }>();
   for (const e of earlier) if (!originalBySha.has(e.sha256)) originalBySha.set(e.sha256, { id: e.id, state: e.state });
 
-  const { upload, rows } = await db.transaction(async (tx) => {
+  // The jobs are queued in the same transaction as the files: a file is never recorded
+  // `queued` without its job, and no worker sees a job before its file.
+  const boss = queue ? await getBoss() : null;
+  const { upload, rows } = await transactionWithClient(async (tx, client) => {
     const [upload] = await tx
       .insert(schema.upload)
       .values({ userId: actor.userId, stationTokenId: actor.stationId, tags: parsedTags })
@@ -123,14 +126,15 @@ export async function receiveSweepUpload({
       subjectId: upload.id,
       after: { files: rows.length, tags: parsedTags },
     });
+    const toFit = rows.filter((r) => r.reason === null && r.duplicate_of === null);
+    if (boss && toFit.length) {
+      await boss.insert(
+        toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id }, retryLimit: 3, retryDelay: 5 })),
+        { db: { executeSql: (text, values) => client.query(text, values) } },
+      );
+    }
     return { upload, rows };
   });
-
-  const toFit = rows.filter((r) => r.reason === null && r.duplicate_of === null);
-  if (toFit.length && queue) {
-    const boss = await getBoss();
-    await boss.insert(toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id }, retryLimit: 3, retryDelay: 5 })));
-  }
   return { upload_id: upload.id, files: rows };
 }
 
