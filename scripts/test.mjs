@@ -111,12 +111,17 @@ if (!only || only !== 'unit') {
 let passed = 0;
 let failed = 0;
 let skipped = 0;
+// A test file that fails before any test runs (a syntax or import error) has no tests to count.
+let unrunnable = 0;
 for (const name of fs.readdirSync(reportsDir)) {
   const r = JSON.parse(fs.readFileSync(path.join(reportsDir, name), 'utf8'));
   passed += r.numPassedTests;
   failed += r.numFailedTests;
   skipped += r.numPendingTests + (r.numTodoTests ?? 0);
+  unrunnable += (r.testResults ?? []).filter((t) => t.status === 'failed' && (t.assertionResults ?? []).length === 0).length;
 }
 const bad = statuses.some((s) => s !== 0);
-console.log(`\n${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);
+console.log(
+  `\n${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}${unrunnable ? `, ${unrunnable} test file(s) could not run` : ''}`,
+);
 setTimeout(() => process.exit(bad || failed > 0 || passed === 0 ? 1 : 0), 300);

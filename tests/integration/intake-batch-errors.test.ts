@@ -2,6 +2,7 @@ import { afterAll, describe, expect, it, vi } from 'vitest';
 import { inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '../../src/db/client';
 import type { Actor } from '../../src/lib/server/identity';
+import { fitUploadFiles } from '../../src/lib/server/jobs/fit-upload-file';
 import { ingestStoredFiles } from '../../src/lib/server/services/intake/ingest-stored-file';
 import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
 import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
@@ -43,5 +44,20 @@ describe('an unexpected error on one file of a batch', () => {
     expect(rows.map((f) => f.state)).toEqual(['fitted', 'queued', 'fitted']);
     const sweeps = await getDb().select().from(schema.sweep).where(inArray(schema.sweep.uploadFileId, ids));
     expect(sweeps.map((s) => s.uploadFileId).sort()).toEqual([ids[0], ids[2]].sort());
+  });
+
+  it('on the last attempt of its job the file is refused with the error instead of staying queued', async () => {
+    const r = await receiveSweepUpload({ actor: station, files: [file(`BE-${RUN}-4`, 7), file(`BE-${RUN}-5`, 7)], tags: {}, queue: false });
+    const [early, last] = r.files.map((f) => f.id);
+    // Shaped as pg-boss hands jobs to the handler (includeMetadata); only what the handler reads.
+    const job = (uploadFileId: number, retryCount: number) =>
+      ({ id: `job-${uploadFileId}`, name: 'fit-upload-file', data: { uploadFileId }, retryCount, retryLimit: 3 }) as unknown as Parameters<typeof fitUploadFiles>[0][number];
+    await expect(fitUploadFiles([job(early, 1), job(last, 3)])).rejects.toThrow('simulated fault in the fitter');
+    const rows = await getDb().select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, [early, last])).orderBy(schema.uploadFile.id);
+    expect(rows[0]).toMatchObject({ state: 'queued', errorCode: null });
+    expect(rows[1]).toMatchObject({ state: 'rejected', errorCode: 'internal_error' });
+    expect(rows[1].reason).toBe(
+      `BE-${RUN}-5.csv: could not be fitted after repeated attempts — internal error: upload file(s) ${early}, ${last} could not be ingested: simulated fault in the fitter. The file is kept as uploaded; upload it again, and tell an admin if this recurs.`,
+    );
   });
 });

@@ -12,7 +12,7 @@ export async function registerJobHandlers(boss: PgBoss): Promise<string[]> {
     let id = '';
     id = await boss.work<FitUploadFileJob>(
       QUEUES.fitUploadFile,
-      { batchSize: FIT_BATCH_SIZE, pollingIntervalSeconds: 0.5 },
+      { batchSize: FIT_BATCH_SIZE, pollingIntervalSeconds: 0.5, includeMetadata: true },
       async (jobs) => {
         await fitUploadFiles(jobs);
         // A full batch means more are waiting: fetch again at once instead of after the poll delay.

@@ -464,6 +464,28 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
   });
 }
 
+/**
+ * Refuses files that could not be ingested after every retry (an unexpected error each
+ * time), so that they end `rejected` with the error instead of staying `queued` for ever. The
+ * stored bytes are kept; files no longer queued are left as they are.
+ */
+export async function refuseAfterRepeatedFailure(uploadFileIds: number[], error: unknown): Promise<IngestOutcome[]> {
+  if (uploadFileIds.length === 0) return [];
+  const rows = await getDb()
+    .select({ file: schema.uploadFile, upload: schema.upload })
+    .from(schema.uploadFile)
+    .innerJoin(schema.upload, eq(schema.upload.id, schema.uploadFile.uploadId))
+    .where(and(inArray(schema.uploadFile.id, uploadFileIds), eq(schema.uploadFile.state, 'queued')));
+  const why = error instanceof Error ? error.message : String(error);
+  const out: IngestOutcome[] = [];
+  for (const { file, upload } of rows) {
+    const actor: Actor = { userId: upload.userId, stationId: upload.stationTokenId, label: 'fitting worker', permissions: [] };
+    const reason = `${file.originalName}: could not be fitted after repeated attempts — internal error: ${why}. The file is kept as uploaded; upload it again, and tell an admin if this recurs.`;
+    out.push(await markRejected(file.id, reason, 'internal_error', actor));
+  }
+  return out;
+}
+
 async function markRejected(uploadFileId: number, reason: string, code: string, actor: Actor): Promise<IngestOutcome> {
   return getDb().transaction(async (tx) => {
     const updated = await tx
