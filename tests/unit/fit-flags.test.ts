@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import type { CurveFamily } from '../../src/core/fit/definitions.ts';
 import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
 import { CurveFamilyShapeError } from '../../src/core/fit/prepared-curves.ts';
-import { maxCurrentA, readCommittedFamily, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
+import { maxCurrentA, readCommittedFamily, readNetlistTruth, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const medium = readCommittedFamily('njf-medium');
 const codes = (f: CurveFamily, extended: 'auto' | 'never' = 'auto') => {
@@ -15,6 +15,26 @@ const codes = (f: CurveFamily, extended: 'auto' | 'never' = 'auto') => {
 };
 
 describe('flags', () => {
+  // Level-1 ID carries (1 + LAMBDA·VDS) in both regions, so rescaling the ngspice family by
+  // (1 + λ·VDS)/(1 + LAMBDA_card·VDS) is that card with LAMBDA = λ (RS = RD = 0 in njf-medium).
+  const withLambda = (lambda: number): CurveFamily => {
+    const card = readNetlistTruth('njf-medium').params.lambdaPerV;
+    return {
+      curves: medium.curves.map((c) => ({
+        vgsV: c.vgsV,
+        points: { vdsV: c.points.vdsV, idA: c.points.idA.map((id, k) => (id * (1 + lambda * c.points.vdsV[k])) / (1 + card * c.points.vdsV[k])) },
+      })),
+    };
+  };
+  it('parameter_at_bound: LAMBDA = 0.6 /V, beyond the 0.5 /V limit; 0.45 /V is still fitted freely', () => {
+    const r = fitCurveFamily(withLambda(0.6), { vdsTestV: 10, extended: 'never' });
+    expect(r.flags.map((f) => f.code)).toEqual(['parameter_at_bound']);
+    expect(r.flags[0].message).toMatch(/^LAMBDA ended at the limit/);
+    expect(r.needsReview).toBe(true);
+    const inside = fitCurveFamily(withLambda(0.45), { vdsTestV: 10, extended: 'never' });
+    expect(inside.flags).toEqual([]);
+    if (inside.status === 'fitted') expect(inside.parameters.lambdaPerV.value).toBeCloseTo(0.45, 6);
+  });
   it('too_few_curves: only 2 VGS steps', () => {
     expect(codes({ curves: medium.curves.slice(0, 2) })).toContain('too_few_curves');
   });
