@@ -131,8 +131,7 @@ export function solveLeastSquares(
     if (sameValues(compressedAt, reduced, q)) return;
     ensure(expand(reduced));
     for (let a = 0; a < q; a++) compressedAt[a] = reduced[a];
-    for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) hFree[a * q + b] = h[free[a] * p + free[b]];
-    const l = choleskyFactor(hFree, q, lFree);
+    const l = choleskyFactor(freeBlock(h, p, free, hFree), q, lFree);
     for (const r of compressedRows) {
       r.length = q;
       r.fill(0);
@@ -186,15 +185,15 @@ export function solveLeastSquares(
       minValues: free.map((k) => problem.min[k]),
       maxValues: free.map((k) => problem.max[k]),
     };
-    compressionFailed = options.rows === 'full';
-    compressedAt.fill(NaN);
-    let r = compressionFailed
-      ? null
-      : levenbergMarquardt({ x: Float64Array.from({ length: q + 1 }, (_, i) => i), y: new Float64Array(q + 1) }, compressedModel, {
-          ...callOptions,
-          jacobianFunction: compressedJacobian,
-        });
-    if (compressionFailed || !r) r = levenbergMarquardt(fullData, fullModel, { ...callOptions, jacobianFunction: fullJacobian });
+    let r: ReturnType<typeof levenbergMarquardt> | null = null;
+    if (options.rows !== 'full') {
+      compressionFailed = false;
+      compressedAt.fill(NaN);
+      const data = { x: Float64Array.from({ length: q + 1 }, (_, i) => i), y: new Float64Array(q + 1) };
+      r = levenbergMarquardt(data, compressedModel, { ...callOptions, jacobianFunction: compressedJacobian });
+      if (compressionFailed) r = null;
+    }
+    r ??= levenbergMarquardt(fullData, fullModel, { ...callOptions, jacobianFunction: fullJacobian });
     iterations += r.iterations;
     if (r.parameterError < sse) {
       u = Array.from(expand(r.parameterValues));
@@ -221,9 +220,7 @@ export function solveLeastSquares(
     }
     const q = free.length;
     if (q === 0) return { predictedDecrease: 0, atBound };
-    const hFree = new Float64Array(q * q);
-    for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) hFree[a * q + b] = h[free[a] * p + free[b]];
-    const inv = invertSymmetricPositiveDefinite(hFree, q);
+    const inv = invertSymmetricPositiveDefinite(freeBlock(h, p, free, new Float64Array(q * q)), q);
     if (!inv) return { predictedDecrease: Infinity, atBound };
     let predictedDecrease = 0;
     for (let a = 0; a < q; a++) {
@@ -237,4 +234,11 @@ export function solveLeastSquares(
 function sameValues(a: ArrayLike<number>, b: ArrayLike<number>, count: number): boolean {
   for (let k = 0; k < count; k++) if (a[k] !== b[k]) return false;
   return true;
+}
+
+/** The rows and columns `free` of the p × p matrix `h`, written into `out` as a q × q matrix. */
+function freeBlock(h: Float64Array, p: number, free: readonly number[], out: Float64Array): Float64Array {
+  const q = free.length;
+  for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) out[a * q + b] = h[free[a] * p + free[b]];
+  return out;
 }
