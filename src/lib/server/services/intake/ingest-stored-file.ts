@@ -1,10 +1,10 @@
-import { and, eq, inArray, isNull, notInArray, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNull, notInArray, sql, type SQL } from 'drizzle-orm';
 import type { FitResult, FittedResult } from '../../../../core/fit/definitions';
 import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
 import { parseSweepFile, SweepFileError, type ParsedSweepFile } from '../../../../core/sweep-file';
 import { getDb, schema } from '../../../../db/client';
-import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
+import { insertRowsAsJson, jsonRecordset } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
 import type { Actor } from '../../identity';
 import { readStoredUpload } from '../../storage/uploads-fs';
@@ -86,12 +86,7 @@ export async function ingestStoredFile(uploadFileId: number): Promise<IngestOutc
 export async function ingestStoredFiles(uploadFileIds: number[]): Promise<IngestOutcome[]> {
   const ids = [...new Set(uploadFileIds)];
   if (ids.length === 0) return [];
-  const rows = await getDb()
-    .select({ file: schema.uploadFile, upload: schema.upload, stationName: schema.stationToken.name })
-    .from(schema.uploadFile)
-    .innerJoin(schema.upload, eq(schema.upload.id, schema.uploadFile.uploadId))
-    .leftJoin(schema.stationToken, eq(schema.stationToken.id, schema.upload.stationTokenId))
-    .where(inArray(schema.uploadFile.id, ids));
+  const rows = await uploadFilesWithUploader(inArray(schema.uploadFile.id, ids));
   const rowById = new Map(rows.map((r) => [r.file.id, r]));
   const outcomes = new Map<number, IngestOutcome>();
   const lots = lotLookup();
@@ -107,12 +102,7 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
       outcomes.set(id, outcomeOf(file));
       continue;
     }
-    const actor: Actor = {
-      userId: upload.userId,
-      stationId: upload.stationTokenId,
-      label: row.stationName ? `station ${row.stationName}` : (upload.userId ?? 'unknown'),
-      permissions: [],
-    };
+    const actor = uploaderOf(upload, row.stationName);
     const tagsParsed = UploadTags.safeParse(upload.tags ?? {});
     const tags: UploadTags = tagsParsed.success ? tagsParsed.data : {};
     const defaultStation = tags.station ?? row.stationName ?? null;
@@ -207,6 +197,26 @@ function lotLookup(): (codes: string[]) => Promise<Map<string, LotRecord>> {
       if (lot) out.set(c, lot);
     }
     return out;
+  };
+}
+
+/** Upload files with their upload and the name of the station that sent them, if one did. */
+function uploadFilesWithUploader(...where: SQL[]) {
+  return getDb()
+    .select({ file: schema.uploadFile, upload: schema.upload, stationName: schema.stationToken.name })
+    .from(schema.uploadFile)
+    .innerJoin(schema.upload, eq(schema.upload.id, schema.uploadFile.uploadId))
+    .leftJoin(schema.stationToken, eq(schema.stationToken.id, schema.upload.stationTokenId))
+    .where(and(...where));
+}
+
+/** Who the audit log names for a file's parts: the person or station that uploaded it. */
+function uploaderOf(upload: typeof schema.upload.$inferSelect, stationName: string | null): Actor {
+  return {
+    userId: upload.userId,
+    stationId: upload.stationTokenId,
+    label: stationName ? `station ${stationName}` : (upload.userId ?? 'unknown'),
+    permissions: [],
   };
 }
 
@@ -418,11 +428,13 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
     );
     const fitByPart = new Map(fits.map((f) => [f.partId, f.id]));
 
-    const currentFits = targets.map(({ p, part }) => ({ id: part.id, fit_id: fitByPart.get(part.id)!, lot_id: p.lotId }));
+    const currentFits = jsonRecordset(
+      schema.part,
+      targets.map(({ p, part }) => ({ id: part.id, currentFitId: fitByPart.get(part.id)!, lotId: p.lotId })),
+    );
     await tx.execute(sql`
-      update ${schema.part} set current_fit_id = x.fit_id, lot_id = coalesce(${schema.part.lotId}, x.lot_id), updated_at = now()
-      from jsonb_to_recordset(${JSON.stringify(currentFits)}::jsonb) as x(id integer, fit_id integer, lot_id integer)
-      where ${schema.part.id} = x.id`);
+      update ${schema.part} set current_fit_id = x.current_fit_id, lot_id = coalesce(${schema.part.lotId}, x.lot_id), updated_at = now()
+      from ${currentFits.from} where ${schema.part.id} = x.id`);
     await writeAudit(
       tx,
       actor,
@@ -450,15 +462,15 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
       targets.filter((t) => t.to === 'accepted').map((t) => t.part.id),
     );
 
-    const finished = live.map((f) => {
-      const mine = targets.filter((t) => t.f === f);
-      const state: UploadFileState = mine.some((t) => t.to === 'needs_review') ? 'needs_review' : 'fitted';
-      return { id: f.file.id, state, serials: f.plan.parts.map((p) => p.serial) };
-    });
+    const toReview = new Set(targets.filter((t) => t.to === 'needs_review').map((t) => t.f));
+    const finished = live.map((f) => ({
+      id: f.file.id,
+      state: (toReview.has(f) ? 'needs_review' : 'fitted') as UploadFileState,
+      serials: f.plan.parts.map((p) => p.serial),
+    }));
     await tx.execute(sql`
       update ${schema.uploadFile} set state = x.state, reason = null, error_code = null, serials = x.serials, finished_at = now()
-      from jsonb_to_recordset(${JSON.stringify(finished)}::jsonb) as x(id integer, state upload_file_state, serials text[])
-      where ${schema.uploadFile.id} = x.id`);
+      from ${jsonRecordset(schema.uploadFile, finished).from} where ${schema.uploadFile.id} = x.id`);
     for (const f of finished) out.push({ uploadFileId: f.id, state: f.state, reason: null, serials: f.serials });
     return out;
   });
@@ -471,15 +483,11 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
  */
 export async function refuseAfterRepeatedFailure(uploadFileIds: number[], error: unknown): Promise<IngestOutcome[]> {
   if (uploadFileIds.length === 0) return [];
-  const rows = await getDb()
-    .select({ file: schema.uploadFile, upload: schema.upload })
-    .from(schema.uploadFile)
-    .innerJoin(schema.upload, eq(schema.upload.id, schema.uploadFile.uploadId))
-    .where(and(inArray(schema.uploadFile.id, uploadFileIds), eq(schema.uploadFile.state, 'queued')));
+  const rows = await uploadFilesWithUploader(inArray(schema.uploadFile.id, uploadFileIds), eq(schema.uploadFile.state, 'queued'));
   const why = error instanceof Error ? error.message : String(error);
   const out: IngestOutcome[] = [];
-  for (const { file, upload } of rows) {
-    const actor: Actor = { userId: upload.userId, stationId: upload.stationTokenId, label: 'fitting worker', permissions: [] };
+  for (const { file, upload, stationName } of rows) {
+    const actor = uploaderOf(upload, stationName);
     const reason = `${file.originalName}: could not be fitted after repeated attempts — internal error: ${why}. The file is kept as uploaded; upload it again, and tell an admin if this recurs.`;
     out.push(await markRejected(file.id, reason, 'internal_error', actor));
   }

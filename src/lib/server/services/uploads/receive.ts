@@ -1,4 +1,4 @@
-import { and, inArray, isNull, ne } from 'drizzle-orm';
+import { and, inArray, isNull, ne, sql } from 'drizzle-orm';
 import { MAX_SWEEP_FILE_BYTES } from '../../../../core/sweep-file';
 import { getDb, schema, transactionWithClient, type DbOrTx } from '../../../../db/client';
 import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
@@ -70,56 +70,38 @@ export async function receiveSweepUpload({
       .insert(schema.upload)
       .values({ userId: actor.userId, stationTokenId: actor.stationId, tags: parsedTags })
       .returning();
-    // Two inserts, not one per file: first the files to fit or refuse, then the files whose
-    // bytes came earlier (before, or in this same request), pointing at that first copy.
-    const planned = files.map((f, i) => {
+    // Ids are taken from the sequence first, so that one insert can point a copy of bytes
+    // sent earlier in this same request at its first copy.
+    const ids = await reserveUploadFileIds(tx, files.length);
+    const firstIdBySha = new Map<string, number>();
+    const rows: ReceivedFile[] = [];
+    const values = files.map((f, i) => {
       const s = stored[i];
+      const id = ids[i];
       const name = f.name.trim() || `file-${i + 1}`;
       const tooLarge = s.sizeBytes > MAX_SWEEP_FILE_BYTES;
       const reason = tooLarge
         ? `${name}: the file is ${s.sizeBytes} bytes, over the limit of ${MAX_SWEEP_FILE_BYTES} bytes (${MAX_SWEEP_FILE_BYTES / MIB} MiB). Expected a file of at most ${MAX_SWEEP_FILE_BYTES / MIB} MiB; split the sweeps into several files.`
         : null;
-      return { name, s, tooLarge, reason, id: 0, copyOfIndex: -1 };
+      const earlierCopy = tooLarge ? undefined : originalBySha.get(s.sha256);
+      const duplicateOf = tooLarge ? null : (earlierCopy?.id ?? firstIdBySha.get(s.sha256) ?? null);
+      if (!tooLarge && duplicateOf === null) firstIdBySha.set(s.sha256, id);
+      rows.push({ id, name, state: tooLarge ? 'rejected' : (earlierCopy?.state ?? 'queued'), reason, duplicate_of: duplicateOf });
+      return {
+        id,
+        uploadId: upload.id,
+        originalName: name,
+        sha256: s.sha256,
+        sizeBytes: s.sizeBytes,
+        storedPath: s.storedPath,
+        state: tooLarge ? ('rejected' as const) : ('queued' as const),
+        reason,
+        errorCode: tooLarge ? 'too_large' : null,
+        duplicateOfId: duplicateOf,
+        finishedAt: tooLarge ? new Date() : null,
+      };
     });
-    const firstIndexBySha = new Map<string, number>();
-    planned.forEach((p, i) => {
-      if (p.tooLarge || originalBySha.has(p.s.sha256)) return;
-      const first = firstIndexBySha.get(p.s.sha256);
-      if (first === undefined) firstIndexBySha.set(p.s.sha256, i);
-      else p.copyOfIndex = first;
-    });
-    const valuesOf = (p: (typeof planned)[number], duplicateOfId: number | null) => ({
-      uploadId: upload.id,
-      originalName: p.name,
-      sha256: p.s.sha256,
-      sizeBytes: p.s.sizeBytes,
-      storedPath: p.s.storedPath,
-      state: p.tooLarge ? ('rejected' as const) : ('queued' as const),
-      reason: p.reason,
-      errorCode: p.tooLarge ? 'too_large' : null,
-      duplicateOfId,
-      finishedAt: p.tooLarge ? new Date() : null,
-    });
-    const firstPass = planned.filter((p) => p.copyOfIndex < 0);
-    const secondPass = planned.filter((p) => p.copyOfIndex >= 0);
-    const firstIds = await insertUploadFiles(
-      tx,
-      firstPass.map((p) => valuesOf(p, p.tooLarge ? null : (originalBySha.get(p.s.sha256)?.id ?? null))),
-    );
-    firstPass.forEach((p, i) => (p.id = firstIds[i]));
-    if (secondPass.length) {
-      const secondIds = await insertUploadFiles(
-        tx,
-        secondPass.map((p) => valuesOf(p, planned[p.copyOfIndex].id)),
-      );
-      secondPass.forEach((p, i) => (p.id = secondIds[i]));
-    }
-    const rows: ReceivedFile[] = planned.map((p) => {
-      const earlierCopy = p.tooLarge ? undefined : originalBySha.get(p.s.sha256);
-      const duplicateOf = earlierCopy?.id ?? (p.copyOfIndex >= 0 ? planned[p.copyOfIndex].id : null);
-      const state = p.tooLarge ? 'rejected' : (earlierCopy?.state ?? 'queued');
-      return { id: p.id, name: p.name, state, reason: p.reason, duplicate_of: duplicateOf };
-    });
+    await insertRowsAsJson(tx, schema.uploadFile, values);
     await writeAudit(tx, actor, {
       action: 'upload.receive',
       subjectType: 'upload',
@@ -138,20 +120,10 @@ export async function receiveSweepUpload({
   return { upload_id: upload.id, files: rows };
 }
 
-/**
- * Inserts upload_file rows in one statement and returns their ids in the order given. Rows
- * are matched back by bytes and name: two rows alike in both are alike in every column, so
- * either id serves either.
- */
-async function insertUploadFiles(tx: DbOrTx, rows: (typeof schema.uploadFile.$inferInsert)[]): Promise<number[]> {
-  const key = (sha: string, name: string) => `${sha}/${name}`;
-  const stored = await insertRowsAsJson(tx, schema.uploadFile, rows, ['id', 'sha256', 'originalName']);
-  const idsByKey = new Map<string, number[]>();
-  for (const r of stored.sort((a, b) => a.id - b.id)) {
-    const k = key(r.sha256, r.originalName);
-    const list = idsByKey.get(k);
-    if (list) list.push(r.id);
-    else idsByKey.set(k, [r.id]);
-  }
-  return rows.map((r) => idsByKey.get(key(r.sha256, r.originalName))!.shift()!);
+/** `count` new upload_file ids, in order, from the table's own sequence. */
+async function reserveUploadFileIds(tx: DbOrTx, count: number): Promise<number[]> {
+  const result = await tx.execute(
+    sql`select nextval(pg_get_serial_sequence('upload_file', 'id'))::int as id from generate_series(1, ${count})`,
+  );
+  return (result.rows as { id: number }[]).map((r) => r.id);
 }
