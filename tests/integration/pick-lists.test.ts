@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inArray } from 'drizzle-orm';
+import { sortForPicking } from '../../src/core/stock/pick-order';
 import { closeDb, getDb, schema } from '../../src/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
@@ -33,8 +34,7 @@ async function reserve(count: number) {
   return res.json();
 }
 
-const scan = (id: number, serial: string, line_no?: number, who = stores) =>
-  who.fetch(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial, ...(line_no ? { line_no } : {}) } });
+const scan = (id: number, serial: string, who = stores) => who.fetch(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial } });
 
 async function statuses(serials: string[]) {
   const rows = await getDb().select().from(schema.part).where(inArray(schema.part.serial, serials));
@@ -52,34 +52,50 @@ describe('pick lists', () => {
       expect(['a', 'b']).toContain(l.role);
     }
 
+    // The printable list: every line once, in walking order (location natural order, then serial).
+    const printed = await stores.fetch(`/pick-lists/${list.id}/print`);
+    expect(printed.status).toBe(200);
+    const html = await printed.text();
+    const order = [...html.matchAll(/data-serial="([^"]+)"/g)].map((m) => m[1]);
+    const walk = sortForPicking(lines.map((l) => ({ serial: l.serial, locationName: l.location, binCode: null }))).map((l) => l.serial);
+    expect(order).toEqual(walk);
+    expect(html).toContain(list.code);
+    expect((await inspector.fetch(`/pick-lists/${list.id}/print`)).status).toBe(403);
+
     const open = await (await stores.fetch('/api/pick-lists?status=open')).json();
     expect(open.pick_lists.some((x: { id: number }) => x.id === list.id)).toBe(true);
 
     // Role rules: designers and inspectors cannot fulfil; inspectors cannot even read.
-    expect((await scan(list.id, lines[0]!.serial, 1, designer)).status).toBe(403);
-    expect((await scan(list.id, lines[0]!.serial, 1, inspector)).status).toBe(403);
+    expect((await scan(list.id, lines[0]!.serial, designer)).status).toBe(403);
+    expect((await scan(list.id, lines[0]!.serial, inspector)).status).toBe(403);
     expect((await inspector.fetch(`/api/pick-lists/${list.id}`)).status).toBe(403);
     expect((await designer.fetch(`/api/pick-lists/${list.id}`)).status).toBe(200); // their own list, read-only
 
-    const refused = async (serial: string, lineNo: number | undefined, refusal: string, message: RegExp) => {
-      const res = await scan(list.id, serial, lineNo);
+    const refused = async (serial: string, refusal: string, message: RegExp) => {
+      const res = await scan(list.id, serial);
       expect(res.status).toBe(409);
       const body = await res.json();
       expect(body.error.refusal).toBe(refusal);
       expect(body.error.message).toMatch(message);
     };
-    await refused('NO-SUCH-SERIAL', 1, 'not_on_list', /NO-SUCH-SERIAL is not on pick list PL-\d+\. No part has that serial/);
+    await refused('NO-SUCH-SERIAL', 'not_on_list', /NO-SUCH-SERIAL is not on pick list PL-\d+\. No part has that serial/);
     const outsider = Array.from({ length: 40 }, (_, i) => `MTK-${String(i + 1).padStart(4, '0')}`).find((s) => !lines.some((l) => l.serial === s))!;
-    await refused(outsider, 1, 'not_on_list', new RegExp(`${outsider} is not on pick list PL-\\d+\\. That part is in stock at MTK drawer`));
-    await refused(lines[1]!.serial, 1, 'other_line', new RegExp(`belongs to line 2.*not line 1\\. Line 1 wants ${lines[0]!.serial}`));
-
-    const ok = await scan(list.id, `  ${lines[0]!.serial} `, 1); // scanners may add spaces
+    await refused(outsider, 'not_on_list', new RegExp(`${outsider} is not on pick list PL-\\d+\\. That part is in stock at MTK drawer`));
+    // Any order (issue 13, item 7): line 3's part first, then line 1's; each scan ticks off its own line.
+    const third = await scan(list.id, lines[2]!.serial);
+    expect(third.status).toBe(200);
+    const thirdBody = await third.json();
+    expect(thirdBody.line_no).toBe(3);
+    expect(thirdBody.pick_list.lines.filter((l: { picked_at: string | null }) => l.picked_at).map((l: { line_no: number }) => l.line_no)).toEqual([3]);
+    const ok = await scan(list.id, `  ${lines[0]!.serial} `); // scanners may add spaces
     expect(ok.status).toBe(200);
-    expect((await ok.json()).complete).toBe(false);
-    await refused(lines[0]!.serial, 2, 'already_picked', /already picked \(line 1/);
+    const okBody = await ok.json();
+    expect(okBody.line_no).toBe(1);
+    expect(okBody.complete).toBe(false);
+    await refused(lines[0]!.serial, 'already_picked', /already picked \(line 1/);
 
-    for (const l of lines.slice(1, -1)) expect((await scan(list.id, l.serial, l.line_no)).status).toBe(200);
-    const last = await (await scan(list.id, lines.at(-1)!.serial, lines.at(-1)!.line_no)).json();
+    expect((await scan(list.id, lines[1]!.serial)).status).toBe(200);
+    const last = await (await scan(list.id, lines.at(-1)!.serial)).json();
     expect(last.complete).toBe(true);
     expect(last.issued.sort()).toEqual(lines.map((l) => l.serial).sort());
     expect(last.mailed_to).toBe('designer@demo.sluice.test');
@@ -94,7 +110,7 @@ describe('pick lists', () => {
     expect(view.status).toBe('issued');
     const mail = await waitForMail('designer@demo.sluice.test', new RegExp(`issued \\(reservation ${out.reservation.code}\\)`));
     for (const l of lines) expect(mail.text).toContain(l.serial);
-    await refused(lines[0]!.serial, undefined, 'list_closed', /is complete/);
+    await refused(lines[0]!.serial, 'list_closed', /is complete/);
 
     // Later, stores take two parts back: issued → returned → in stock, at the place they came from.
     const back = await stores.fetch(`/api/pick-lists/${list.id}/returns`, { method: 'POST', json: { serials: [lines[0]!.serial, lines[1]!.serial] } });
@@ -116,7 +132,7 @@ describe('pick lists', () => {
   it('a cancelled reservation closes its list to scanning', async () => {
     const out = await reserve(1);
     await designer.fetch(`/api/reservations/${out.reservation.id}/cancel`, { method: 'POST', json: {} });
-    const res = await scan(out.pick_list.id, out.pick_list.lines[0].serial, 1);
+    const res = await scan(out.pick_list.id, out.pick_list.lines[0].serial);
     expect(res.status).toBe(409);
     expect((await res.json()).error.message).toMatch(/is cancelled.*Put any parts/);
   });

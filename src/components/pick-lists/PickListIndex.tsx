@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import TabStrip from '../ui/TabStrip';
 import type { PickListSummary } from '../../lib/server/services/pick-lists/list';
 import { STATUS_TAG, dateTime, relativeTo } from '../match/figures';
 import { useApi } from '../ui/api-client';
@@ -11,19 +12,26 @@ const FILTERS = [
   ['all', 'All'],
 ] as const;
 
-export default function PickListIndex() {
-  const [status, setStatus] = useState<(typeof FILTERS)[number][0]>('open');
+type Filter = (typeof FILTERS)[number][0];
+
+function isFilter(v: string | null): v is Filter {
+  return FILTERS.some(([k]) => k === v);
+}
+
+/** The pick lists; the filter lives in the address (`?status=complete`) so it can be linked and reloaded. */
+export default function PickListIndex({ initialStatus }: { initialStatus?: string | null }) {
+  const [status, setStatusState] = useState<Filter>(isFilter(initialStatus ?? null) ? (initialStatus as Filter) : 'open');
+  const setStatus = (next: Filter) => {
+    setStatusState(next);
+    const url = new URL(window.location.href);
+    url.searchParams.set('status', next);
+    window.history.replaceState(null, '', url);
+  };
   const { data, error, loading, reload } = useApi<{ pick_lists: PickListSummary[] }>(`/api/pick-lists?status=${status}`);
   const rows = data?.pick_lists ?? [];
   return (
     <div className="space-y-4">
-      <div className="flex gap-1" role="tablist" aria-label="Which pick lists">
-        {FILTERS.map(([k, label]) => (
-          <button key={k} type="button" role="tab" aria-selected={status === k} className={status === k ? 'btn-primary' : 'btn-quiet'} onClick={() => setStatus(k)}>
-            {label}
-          </button>
-        ))}
-      </div>
+      <TabStrip label="Which pick lists" tabs={FILTERS.map(([id, label]) => ({ id, label }))} selected={status} onSelect={setStatus} />
       {loading && !data && <Loading what="pick lists" />}
       {error && <ErrorNotice error={error} retry={reload} />}
       {data && rows.length === 0 && <Empty>{status === 'open' ? 'No open pick lists: nothing is waiting to be picked.' : 'No pick lists here.'}</Empty>}

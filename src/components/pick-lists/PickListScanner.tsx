@@ -63,7 +63,6 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
   const loaded = useApi<PickListView>(`/api/pick-lists/${id}`);
   const [list, setList] = useState<PickListView>();
   const [serial, setSerial] = useState('');
-  const [chosenLine, setChosenLine] = useState<number>();
   const [feedback, setFeedback] = useState<Feedback>();
   const [busy, setBusy] = useState(false);
   const input = useRef<HTMLInputElement>(null);
@@ -71,7 +70,8 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
     if (loaded.data) setList(loaded.data);
   }, [loaded.data]);
 
-  const current = list?.lines.find((l) => !l.picked_at && (chosenLine === undefined || l.line_no === chosenLine)) ?? list?.lines.find((l) => !l.picked_at);
+  // The next line in walking order; a scan of any other unpicked line's serial counts as well.
+  const current = list?.lines.find((l) => !l.picked_at);
   const open = list?.status === 'open' && list.reservation.status === 'active';
   const keepFocus = () => {
     if (canPick && open) setTimeout(() => input.current?.focus(), 0);
@@ -87,9 +87,8 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
     if (!s || !current || busy) return;
     setBusy(true);
     try {
-      const out = await apiFetch<ScanAnswer>(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial: s, line_no: current.line_no } });
+      const out = await apiFetch<ScanAnswer>(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial: s } });
       setList(out.pick_list);
-      setChosenLine(undefined);
       setFeedback(
         out.complete
           ? {
@@ -117,6 +116,9 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
           Pick list <span className="font-mono">{list.code}</span>
         </h1>
         <span className={STATUS_TAG[list.status] ?? 'tag-plain'}>{list.status}</span>
+        <a className="btn-quiet no-underline hover:no-underline" href={`/pick-lists/${list.id}/print`} target="_blank" rel="noopener">
+          Printable list
+        </a>
         <span className="text-sm text-ink-soft">
           for {list.reservation.designer_name} · reservation <span className="font-mono">{list.reservation.code}</span>
           {list.reservation.purpose && ` · ${list.reservation.purpose}`}
@@ -136,9 +138,10 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
         <form onSubmit={scan} className="card p-4 grid gap-3 md:grid-cols-[1fr_auto] items-end" aria-label="Scan a serial">
           <div>
             <p className="text-sm mb-2">
-              Line <strong>{current.line_no}</strong>: take <strong className="font-mono">{current.serial}</strong> from{' '}
+              Next by location, line <strong>{current.line_no}</strong>: take <strong className="font-mono">{current.serial}</strong> from{' '}
               <strong>{current.location ?? 'no recorded location'}</strong>
-              {current.location_barcode && <span className="text-ink-faint"> ({current.location_barcode})</span>} — set {current.set_no}, {roleLabel(current.role, current.cascode_index)}
+              {current.location_barcode && <span className="text-ink-faint"> ({current.location_barcode})</span>} — set {current.set_no}, {roleLabel(current.role, current.cascode_index)}.
+              <span className="block text-ink-soft">Parts can be scanned in any order: each serial ticks off its own line.</span>
             </p>
             <label className="field" htmlFor="scan-serial">Scan the part’s serial</label>
             <input
@@ -157,7 +160,7 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
             />
           </div>
           <button type="submit" className="btn-primary" disabled={busy || !serial.trim()}>
-            Confirm line
+            Confirm part
           </button>
         </form>
       )}
@@ -206,10 +209,6 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
                         ✓ {new Date(l.picked_at).toLocaleTimeString('en-GB', { timeStyle: 'short' })}
                         {l.picked_by && ` · ${l.picked_by}`}
                       </span>
-                    ) : canPick && open && !isCurrent ? (
-                      <button type="button" className="text-xs text-channel-600 underline" onClick={() => (setChosenLine(l.line_no), keepFocus())}>
-                        pick this line next
-                      </button>
                     ) : (
                       <span className="text-ink-faint">waiting</span>
                     )}

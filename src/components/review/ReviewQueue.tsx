@@ -3,6 +3,7 @@ import { percent, q, when } from '../parts/figures';
 import { flagWord } from '../parts/part-types';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
+import TabStrip from '../ui/TabStrip';
 
 interface QueueItem {
   serial: string;
@@ -24,12 +25,16 @@ export default function ReviewQueue() {
   const { data, error, loading, reload } = useApi<{ total: number; items: QueueItem[] }>(`/api/review?status=${status}`);
   return (
     <div className="space-y-4">
-      <div className="flex items-center gap-2" role="tablist" aria-label="Which parts">
-        {(['needs_review', 'retest'] as const).map((s) => (
-          <button key={s} type="button" role="tab" aria-selected={status === s} className={status === s ? 'btn-primary' : 'btn-quiet'} onClick={() => setStatus(s)}>
-            {s === 'needs_review' ? 'Waiting for review' : 'Marked for retest'}
-          </button>
-        ))}
+      <div className="flex flex-wrap items-center gap-2">
+        <TabStrip
+          label="Which parts"
+          tabs={[
+            { id: 'needs_review', label: 'Waiting for review' },
+            { id: 'retest', label: 'Marked for retest' },
+          ]}
+          selected={status}
+          onSelect={setStatus}
+        />
         {data && <span className="ml-2 text-sm text-ink-soft">{data.total} part{data.total === 1 ? '' : 's'}</span>}
       </div>
       {loading && !data && <Loading what="the review queue" />}

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import ScanBatch, { type StockAction } from './ScanBatch';
+import TabStrip from '../ui/TabStrip';
 
 interface AwaitingLot {
   lot_id: number | null;
@@ -70,20 +71,7 @@ export default function StoresDesk({ allowed }: { allowed: StockAction[] }) {
   return (
     <div className="grid gap-5 lg:grid-cols-[minmax(0,1fr)_24rem]">
       <div className="card">
-        <div role="tablist" aria-label="Stock action" className="mb-4 flex gap-1 border-b border-paper-line">
-          {tabs.map((t) => (
-            <button
-              key={t.id}
-              role="tab"
-              type="button"
-              aria-selected={t.id === tab}
-              className={`-mb-px rounded-t border px-4 py-1.5 text-sm font-semibold ${t.id === tab ? 'border-paper-line border-b-paper-raised bg-paper-raised text-channel-700' : 'border-transparent text-ink-soft hover:text-ink'}`}
-              onClick={() => setTab(t.id)}
-            >
-              {t.label}
-            </button>
-          ))}
-        </div>
+        <TabStrip label="Stock action" look="folder" className="mb-4" tabs={tabs} selected={tab} onSelect={setTab} />
         <p className="text-sm text-ink-soft mb-3">{current.hint}</p>
         <ScanBatch key={tab} action={tab} onDone={() => setTick((n) => n + 1)} />
       </div>

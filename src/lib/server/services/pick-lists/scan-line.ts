@@ -12,13 +12,12 @@ import { parsePickListId } from './get';
 import { mailIssuedReservation } from './mail-issued';
 import { loadPickListView, type PickListView } from './pick-list-view';
 
+/** The serial scanned; it fulfils whichever line of the list it belongs to, in any order. */
 export const ScanRequest = z.object({
   serial: z.string().trim().min(1, 'scan or type the serial on the part'),
-  /** The line the picker is confirming; when given, a serial of another line is refused. */
-  line_no: z.number().int().positive().optional(),
 });
 
-export type ScanRefusal = 'not_on_list' | 'already_picked' | 'other_line' | 'list_closed';
+export type ScanRefusal = 'not_on_list' | 'already_picked' | 'list_closed';
 
 export interface ScanResult {
   line_no: number;
@@ -35,16 +34,16 @@ function refuse(refusal: ScanRefusal, message: string, extra: Record<string, unk
 }
 
 /**
- * Stores confirm one line by scanning its part's serial. A serial is refused, saying why, when
- * it is not on this list, was already picked, or belongs to another line than the one being
- * confirmed. The scan that picks the last line issues every part (reserved → issued), closes
+ * Stores confirm a line by scanning its part's serial, in whatever order they reach the parts:
+ * the serial picks the line it belongs to. A serial is refused, saying why, when it is not on
+ * this list or was already picked. The scan that picks the last line issues every part (reserved → issued), closes
  * the reservation and the list in the same transaction, then mails the designer.
  * Locks the reservation, then the list (the order cancel and expiry use too).
  */
 export async function scanPickLine({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<ScanResult> {
   requirePermission(actor, 'pickLists:fulfil');
   const listId = parsePickListId(id);
-  const { serial, line_no: lineNo } = ScanRequest.parse(input);
+  const { serial } = ScanRequest.parse(input);
   await expireDueReservations();
   const db = getDb();
   const out = await db.transaction(async (tx) => {
@@ -85,15 +84,6 @@ export async function scanPickLine({ actor, id, input }: { actor: Actor | null; 
       refuse('already_picked', `${hit.serial} was already picked (line ${hit.line.lineNo}, at ${at} UTC${hit.pickerName ? ` by ${hit.pickerName}` : ''}).`, {
         line_no: hit.line.lineNo,
       });
-    }
-    if (lineNo !== undefined && hit.line.lineNo !== lineNo) {
-      const want = lines.find((l) => l.line.lineNo === lineNo);
-      refuse(
-        'other_line',
-        `${hit.serial} belongs to line ${hit.line.lineNo}${hit.location ? ` (${hit.location})` : ''}, not line ${lineNo}. ` +
-          (want ? `Line ${lineNo} wants ${want.serial}${want.location ? ` from ${want.location}` : ''}.` : ''),
-        { line_no: hit.line.lineNo },
-      );
     }
     const now = new Date();
     await tx.update(schema.pickLine).set({ pickedAt: now, pickedBy: actor.userId }).where(eq(schema.pickLine.id, hit.line.id));
