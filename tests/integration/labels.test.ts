@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb } from '../../src/db/client';
 import { signIn, type Session } from '../helpers/http';
-import { COARSE_PLAN, createAcceptedParts, createTestType } from './stock-fixtures';
+import { COARSE_PLAN, createAcceptedParts, createTestType, uniqueName } from './stock-fixtures';
 
 let admin: Session, stores: Session, designer: Session;
 let type: { id: number; name: string };
@@ -47,6 +47,28 @@ describe('labels', () => {
     expect(rollHtml).toContain('size: 62mm 29mm');
     expect(rollHtml.match(/data-barcode=/g)).toHaveLength(2);
     expect(rollHtml).toContain('NOPE');
+  });
+
+  it('a part label says where the part is now, after a move (issue 13, item 5)', async () => {
+    const make = async (name: string) => (await stores.fetch('/api/locations', { method: 'POST', json: { name: uniqueName(name) } })).json();
+    const [first, second] = [await make('Label drawer A'), await make('Label drawer B')];
+    expect((await stores.fetch('/api/stock/receive', { method: 'POST', json: { serials: [serials[0]], location_barcode: first.barcode } })).status).toBe(200);
+    const before = await (await stores.fetch(`/labels/print?kind=part&serials=${serials[0]}`)).text();
+    expect(before).toContain(first.name);
+    expect((await stores.fetch('/api/stock/move', { method: 'POST', json: { serials: [serials[0]], location_barcode: second.barcode } })).status).toBe(200);
+    const after = await (await stores.fetch(`/labels/print?kind=part&serials=${serials[0]}`)).text();
+    expect(after).toContain(second.name);
+    expect(after).not.toContain(first.name);
+  });
+
+  it('prints location labels whose barcode is the location barcode the move scanner reads', async () => {
+    const loc = await (await stores.fetch('/api/locations', { method: 'POST', json: { name: uniqueName('Label cabinet'), description: 'left of the bench' } })).json();
+    const html = await (await stores.fetch(`/labels/print?kind=location&layout=roll-62x29&locations=${loc.id}`)).text();
+    expect(html.match(/data-barcode=/g)).toHaveLength(1);
+    expect(html).toContain(`data-barcode="${loc.barcode}"`);
+    expect(html).toContain(loc.name);
+    expect(html).toContain('left of the bench');
+    expect(html).toContain('<svg');
   });
 
   it('designers cannot print labels', async () => {

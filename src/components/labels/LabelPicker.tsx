@@ -10,25 +10,39 @@ interface BinRow {
   location: { name: string } | null;
 }
 
+interface LocationRow {
+  id: number;
+  name: string;
+  barcode: string;
+  description: string;
+  part_count: number;
+}
+
 export interface LayoutOption {
   id: string;
   name: string;
 }
 
-/** Picks bins or serials, a label size and a symbology, then opens the print page. */
-export default function LabelPicker({ deviceTypes, layouts }: { deviceTypes: string[]; layouts: LayoutOption[] }) {
-  const [kind, setKind] = useState<'bin' | 'part'>('bin');
+type Kind = 'bin' | 'part' | 'location';
+
+/** Picks bins, serials or locations, a label size and a symbology, then opens the print page. */
+export default function LabelPicker({ deviceTypes, layouts, initialKind }: { deviceTypes: string[]; layouts: LayoutOption[]; initialKind?: string | null }) {
+  const [kind, setKind] = useState<Kind>(initialKind === 'part' || initialKind === 'location' ? initialKind : 'bin');
+  const [pickedLocations, setPickedLocations] = useState<Set<number>>(new Set());
   const [type, setType] = useState(deviceTypes[0] ?? '');
   const [layout, setLayout] = useState(layouts[0]?.id ?? '');
   const [symbology, setSymbology] = useState<'code128' | 'datamatrix'>('code128');
   const [picked, setPicked] = useState<Set<number>>(new Set());
   const [serials, setSerials] = useState('');
   const bins = useApi<{ bins: BinRow[] }>(kind === 'bin' && type ? `/api/bins?device_type=${encodeURIComponent(type)}&page_size=1000` : null);
+  const locations = useApi<{ locations: LocationRow[] }>(kind === 'location' ? '/api/locations' : null);
 
   const params = new URLSearchParams({ kind, layout, symbology });
   if (kind === 'bin') params.set('bins', [...picked].join(','));
+  else if (kind === 'location') params.set('locations', [...pickedLocations].join(','));
   else params.set('serials', serials.split(/[\s,;]+/).filter(Boolean).join(','));
-  const ready = kind === 'bin' ? picked.size > 0 : serials.trim().length > 0;
+  const ready = kind === 'bin' ? picked.size > 0 : kind === 'location' ? pickedLocations.size > 0 : serials.trim().length > 0;
+  const toggleLocation = (id: number) => setPickedLocations((s) => { const n = new Set(s); if (n.has(id)) n.delete(id); else n.add(id); return n; });
   const toggle = (id: number) => setPicked((s) => { const n = new Set(s); if (n.has(id)) n.delete(id); else n.add(id); return n; });
 
   return (
@@ -36,8 +50,13 @@ export default function LabelPicker({ deviceTypes, layouts }: { deviceTypes: str
       <div className="card grid gap-4 md:grid-cols-4 items-end">
         <fieldset>
           <legend className="field">Labels for</legend>
-          <label className="mr-4 text-sm"><input type="radio" name="kind" checked={kind === 'bin'} onChange={() => setKind('bin')} /> Bins</label>
-          <label className="text-sm"><input type="radio" name="kind" checked={kind === 'part'} onChange={() => setKind('part')} /> Parts</label>
+          <div className="flex flex-wrap gap-x-4">
+            {(['bin', 'part', 'location'] as const).map((k) => (
+              <label key={k} className="inline-flex min-h-11 items-center gap-1.5 text-sm">
+                <input type="radio" name="kind" checked={kind === k} onChange={() => setKind(k)} /> {k === 'bin' ? 'Bins' : k === 'part' ? 'Parts' : 'Locations'}
+              </label>
+            ))}
+          </div>
         </fieldset>
         <div>
           <label className="field" htmlFor="lbl-layout">Label size</label>
@@ -54,7 +73,30 @@ export default function LabelPicker({ deviceTypes, layouts }: { deviceTypes: str
         </div>
         <a className={`btn-primary no-underline hover:no-underline ${ready ? '' : 'pointer-events-none opacity-50'}`} aria-disabled={!ready} href={`/labels/print?${params}`} target="_blank" rel="noopener">Open print page</a>
       </div>
-      {kind === 'part' ? (
+      {kind === 'location' ? (
+        <div className="card space-y-3">
+          <div className="flex flex-wrap items-end gap-3">
+            <button type="button" className="btn-quiet" onClick={() => setPickedLocations(new Set(locations.data?.locations.map((l) => l.id)))}>Select all</button>
+            <button type="button" className="btn-quiet" onClick={() => setPickedLocations(new Set())}>None</button>
+            <span className="text-sm text-ink-soft">{pickedLocations.size} selected · the label carries the barcode the scanner reads when parts move there</span>
+          </div>
+          {locations.loading && !locations.data && <Loading what="locations" />}
+          {locations.error && <ErrorNotice error={locations.error} retry={locations.reload} />}
+          {locations.data && locations.data.locations.length === 0 && <Empty>No locations yet: add them on the Locations page.</Empty>}
+          {locations.data && locations.data.locations.length > 0 && (
+            <ul className="grid gap-1 sm:grid-cols-2 lg:grid-cols-3 text-sm max-h-[28rem] overflow-y-auto">
+              {locations.data.locations.map((l) => (
+                <li key={l.id}>
+                  <label className="flex min-h-11 items-start gap-2 py-1">
+                    <input type="checkbox" className="mt-1" checked={pickedLocations.has(l.id)} onChange={() => toggleLocation(l.id)} />
+                    <span><span className="font-semibold">{l.name}</span> <span className="font-mono text-xs text-ink-soft">{l.barcode}</span> <span className="text-ink-faint">· {l.part_count} parts</span></span>
+                  </label>
+                </li>
+              ))}
+            </ul>
+          )}
+        </div>
+      ) : kind === 'part' ? (
         <div className="card">
           <label className="field" htmlFor="lbl-serials">Serials (scan or paste, one per line)</label>
           <textarea id="lbl-serials" className="input font-mono h-40" value={serials} onChange={(e) => setSerials(e.target.value)} />
@@ -80,7 +122,7 @@ export default function LabelPicker({ deviceTypes, layouts }: { deviceTypes: str
             <ul className="grid gap-1 sm:grid-cols-2 lg:grid-cols-3 text-sm max-h-[28rem] overflow-y-auto">
               {bins.data.bins.map((b) => (
                 <li key={b.id}>
-                  <label className="flex items-start gap-2">
+                  <label className="flex min-h-11 items-start gap-2 py-1">
                     <input type="checkbox" className="mt-1" checked={picked.has(b.id)} onChange={() => toggle(b.id)} />
                     <span><span className="font-semibold">{b.code}</span> <span className="text-ink-soft">{b.label}</span> <span className="text-ink-faint">· {b.on_hand} on hand</span></span>
                   </label>

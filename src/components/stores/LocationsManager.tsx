@@ -11,7 +11,7 @@ interface LocationRow {
   part_count: number;
 }
 
-function LocationLine({ l, canEdit, act }: { l: LocationRow; canEdit: boolean; act: (fn: () => Promise<unknown>, ok: string) => void }) {
+function LocationLine({ l, canEdit, canLabel, act }: { l: LocationRow; canEdit: boolean; canLabel: boolean; act: (fn: () => Promise<unknown>, ok: string) => void }) {
   const [editing, setEditing] = useState(false);
   const [name, setName] = useState(l.name);
   const [barcode, setBarcode] = useState(l.barcode);
@@ -39,6 +39,11 @@ function LocationLine({ l, canEdit, act }: { l: LocationRow; canEdit: boolean; a
       <td className="num">{l.bin_count}</td>
       <td className="num">{l.part_count}</td>
       <td className="text-right whitespace-nowrap">
+        {canLabel && (
+          <>
+            <a className="btn-quiet py-0.5 no-underline hover:no-underline" href={`/labels/print?kind=location&locations=${l.id}`} target="_blank" rel="noopener">Print label</a>{' '}
+          </>
+        )}
         {canEdit && (
           <>
             <button type="button" className="btn-quiet py-0.5" onClick={() => setEditing(true)}>Edit</button>{' '}
@@ -58,7 +63,7 @@ function LocationLine({ l, canEdit, act }: { l: LocationRow; canEdit: boolean; a
   );
 }
 
-export default function LocationsManager({ canEdit }: { canEdit: boolean }) {
+export default function LocationsManager({ canEdit, canLabel = false }: { canEdit: boolean; canLabel?: boolean }) {
   const { data, error, loading, reload } = useApi<{ locations: LocationRow[] }>('/api/locations');
   const [message, setMessage] = useState<{ ok: boolean; text: string }>();
   function act(fn: () => Promise<unknown>, ok: string) {
@@ -94,7 +99,7 @@ export default function LocationsManager({ canEdit }: { canEdit: boolean }) {
       {data && data.locations.length > 0 && (
         <table className="table-plain bg-paper-raised">
           <thead><tr><th>Name</th><th>Barcode</th><th>Description</th><th className="text-right">Bins at home</th><th className="text-right">Parts here</th><th></th></tr></thead>
-          <tbody>{data.locations.map((l) => <LocationLine key={`${l.id}-${l.name}-${l.barcode}`} l={l} canEdit={canEdit} act={act} />)}</tbody>
+          <tbody>{data.locations.map((l) => <LocationLine key={`${l.id}-${l.name}-${l.barcode}`} l={l} canEdit={canEdit} canLabel={canLabel} act={act} />)}</tbody>
         </table>
       )}
     </div>

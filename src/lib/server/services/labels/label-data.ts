@@ -33,17 +33,21 @@ export async function binLabels({ actor, binIds }: { actor: Actor | null; binIds
   }));
 }
 
-/** Part labels: serial as barcode, type, bin and the two binning figures. */
+/**
+ * Part labels: serial as barcode, type, bin, the two binning figures and where the part is
+ * now (its own location, which a move changes; its bin's home only while it has none).
+ */
 export async function partLabels({ actor, serials }: { actor: Actor | null; serials: string[] }): Promise<{ labels: LabelContent[]; unknown: string[] }> {
   requirePermission(actor, 'stock:labels');
   const list = collectScanBatch(serials).serials.slice(0, 500);
   if (!list.length) return { labels: [], unknown: [] };
   const rows = await getDb()
-    .select({ serial: schema.part.serial, type: schema.deviceType.name, bin: schema.bin.code, idssA: schema.fit.idssA, vpV: schema.fit.vpV, vds: schema.fit.idssVdsV, home: home.name })
+    .select({ serial: schema.part.serial, type: schema.deviceType.name, bin: schema.bin.code, idssA: schema.fit.idssA, vpV: schema.fit.vpV, vds: schema.fit.idssVdsV, home: home.name, at: schema.location.name })
     .from(schema.part)
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
     .leftJoin(home, eq(home.id, schema.bin.homeLocationId))
+    .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
     .leftJoin(schema.fit, and(eq(schema.fit.id, schema.part.currentFitId)))
     .where(inArray(schema.part.serial, list));
   const bySerial = new Map(rows.map((r) => [r.serial, r]));
@@ -55,7 +59,36 @@ export async function partLabels({ actor, serials }: { actor: Actor | null; seri
       r.idssA !== null && r.vpV !== null
         ? [`IDSS ${formatQuantity(r.idssA, 'A', 2)} at ${r.vds} V`, `VP ${formatQuantity(r.vpV, 'V', 2)}`]
         : ['not yet fitted'];
-    labels.push({ barcodeText: r.serial, title: r.serial, lines: [`${r.type}${r.bin ? ` · bin ${r.bin}` : ''}`, ...figures, ...(r.home ? [r.home] : [])] });
+    const where = r.at ?? (r.home ? `${r.home} (bin home)` : null);
+    labels.push({ barcodeText: r.serial, title: r.serial, lines: [`${r.type}${r.bin ? ` · bin ${r.bin}` : ''}`, ...figures, ...(where ? [where] : [])] });
   }
   return { labels, unknown: list.filter((s) => !bySerial.has(s)) };
+}
+
+/**
+ * Location labels: the location's barcode (what the stores scanner reads when moving parts)
+ * with its name, description and what lives there.
+ */
+export async function locationLabels({ actor, locationIds }: { actor: Actor | null; locationIds: number[] }): Promise<LabelContent[]> {
+  requirePermission(actor, 'stock:labels');
+  if (!locationIds.length) return [];
+  const rows = await getDb()
+    .select({ id: schema.location.id, name: schema.location.name, barcode: schema.location.barcode, description: schema.location.description })
+    .from(schema.location)
+    .where(inArray(schema.location.id, locationIds))
+    .orderBy(asc(schema.location.name));
+  const homes = await getDb()
+    .select({ locationId: schema.bin.homeLocationId, code: schema.bin.code, type: schema.deviceType.name })
+    .from(schema.bin)
+    .innerJoin(schema.binPlan, and(eq(schema.binPlan.id, schema.bin.binPlanId), eq(schema.binPlan.isActive, true)))
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.binPlan.deviceTypeId))
+    .where(inArray(schema.bin.homeLocationId, locationIds))
+    .orderBy(asc(schema.bin.code));
+  return rows.map((r) => {
+    const bins = homes.filter((h) => h.locationId === r.id);
+    const binLine = bins.length
+      ? `bins ${bins.slice(0, 4).map((b) => `${b.type} ${b.code}`).join(', ')}${bins.length > 4 ? ` +${bins.length - 4}` : ''}`
+      : null;
+    return { barcodeText: r.barcode, title: r.name, lines: [r.barcode, ...(r.description ? [r.description] : []), ...(binLine ? [binLine] : [])] };
+  });
 }
