@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown } from '../../src/core/statistics';
+import { binShareGrid, binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown } from '../../src/core/statistics';
 
 // Twelve IDSS readings in mA (invented). Reference figures from NumPy 1.24.2 (/usr/bin/python3):
 // mean, std(ddof=1), percentile (default linear method) and histogram.
@@ -113,6 +113,79 @@ describe('lotTrend', () => {
     expect(r.points[0].sd).toBeCloseTo(Math.sqrt(0.02), 14); // hand: two values ±0.1 → s = 0.1·√2
     expect(r.points[1].sd).toBeNull();
     expect(r.driftPerDay).toBeCloseTo(0.01377551, 8);
+    // Standard error of the slope: scipy.stats.linregress(x, y).stderr = 0.0026510981748503
+    // (SciPy, /usr/bin/python3, x = [0, 7, 21], y = [6.1, 6.25, 6.4]); also the textbook formula.
+    expect(r.driftSePerDay).toBeCloseTo(0.0026510981748503, 12);
+    expect(r.driftSePerDay).toBeCloseTo(slopeSe([0, 7, 21], [6.1, 6.25, 6.4]), 12);
+    expect(r.enough).toBe(true);
     expect(lotTrend([r.points[0]].map((p) => ({ ...p, values: [1] }))).driftPerDay).toBeNull();
+  });
+
+  it('says there is not enough for lots received minutes apart (no 75 V/day drift)', () => {
+    const t0 = Date.UTC(2026, 2, 2);
+    const minute = 60_000;
+    const r = lotTrend([
+      { lotId: 'A', receivedAt: new Date(t0), values: [-1.2, -1.3] },
+      { lotId: 'B', receivedAt: new Date(t0 + 5 * minute), values: [-1.0] },
+      { lotId: 'C', receivedAt: new Date(t0 + 9 * minute), values: [-0.9] },
+    ]);
+    expect(r.enough).toBe(false);
+    expect(r.driftPerDay).toBeNull();
+    expect(r.driftSePerDay).toBeNull();
+    expect(r.notEnoughReason).toBe('The 3 lots were received within 9 minutes; a trend needs them spread over 14 days or more.');
+  });
+
+  it('needs three lots', () => {
+    const day = 86_400_000;
+    const r = lotTrend([
+      { lotId: 'A', receivedAt: new Date(0), values: [1] },
+      { lotId: 'B', receivedAt: new Date(60 * day), values: [2] },
+    ]);
+    expect(r.enough).toBe(false);
+    expect(r.notEnoughReason).toContain('Only 2 lots');
+  });
+});
+
+/** Standard error of an ordinary least-squares slope, written out from its textbook formula (derived). */
+function slopeSe(x: number[], y: number[]): number {
+  const n = x.length;
+  const mx = x.reduce((a, b) => a + b) / n;
+  const my = y.reduce((a, b) => a + b) / n;
+  const sxx = x.reduce((a, v) => a + (v - mx) ** 2, 0);
+  const sxy = x.reduce((a, v, i) => a + (v - mx) * (y[i] - my), 0);
+  const m = sxy / sxx;
+  const b = my - m * mx;
+  const ssr = x.reduce((a, v, i) => a + (y[i] - (m * v + b)) ** 2, 0);
+  return Math.sqrt(ssr / (n - 2) / sxx);
+}
+
+describe('binShareGrid', () => {
+  // Two IDSS ranges × two VP ranges (N-channel) and the hold bin, counts invented; the layout
+  // and shares are worked by hand (derived).
+  const r = (quantity: string, loValue: number, hiValue: number) => ({ quantity, loValue, hiValue });
+  const bins = [
+    { code: 'I01-P01', count: 3, ranges: [r('idss', 0.002, 0.004), r('vp', -2, -1)] },
+    { code: 'I01-P02', count: 1, ranges: [r('idss', 0.002, 0.004), r('vp', -1, -0.5)] },
+    { code: 'I02-P01', count: 4, ranges: [r('idss', 0.004, 0.006), r('vp', -2, -1)] },
+    { code: 'I02-P02', count: 0, ranges: [r('idss', 0.004, 0.006), r('vp', -1, -0.5)] },
+    { code: 'HOLD', count: 2, ranges: [] },
+  ];
+  it('puts IDSS across, VP down from the end nearest 0 V, and the hold bin off the grid', () => {
+    const g = binShareGrid(bins)!;
+    expect(g.idss).toEqual([{ lo: 0.002, hi: 0.004 }, { lo: 0.004, hi: 0.006 }]);
+    expect(g.vp).toEqual([{ lo: -1, hi: -0.5 }, { lo: -2, hi: -1 }]);
+    expect(g.cells.map((row) => row.map((c) => c?.code))).toEqual([
+      ['I01-P02', 'I02-P02'],
+      ['I01-P01', 'I02-P01'],
+    ]);
+    expect(g.cells[1][1]!.share).toBeCloseTo(0.4, 15);
+    expect(g.offGrid).toEqual([{ code: 'HOLD', count: 2, share: 0.2 }]);
+    expect(g.maxCount).toBe(4);
+  });
+  it('gives one row for an IDSS-only plan and null for a plan on neither axis', () => {
+    const g = binShareGrid([{ code: 'I01', count: 1, ranges: [r('idss', 0, 1)] }, { code: 'I02', count: 1, ranges: [r('idss', 1, 2)] }])!;
+    expect(g.vp).toEqual([null]);
+    expect(g.cells[0].map((c) => c?.code)).toEqual(['I01', 'I02']);
+    expect(binShareGrid([{ code: 'G01', count: 1, ranges: [r('vgs_at_current', -1, 0)] }])).toBeNull();
   });
 });

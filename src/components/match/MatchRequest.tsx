@@ -3,7 +3,10 @@ import type { MatchableType } from '../../lib/server/services/match/list-types';
 import type { ProposalView, ProposedSet } from '../../lib/server/services/match/proposal-view';
 import { ApiError, apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-import { SHAPE_WORDS, amps, millivolts, percent, roleLabel, siemens, volts } from './figures';
+import { COMMON_PRACTICE_GRADES, proposalVerdict, setGradeWarnings, toleranceWarnings, type AskedTolerances } from '../../core/match/grade-warnings';
+import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
+import { columnFormat } from '../../core/units/format-quantity';
+import { SHAPE_WORDS, millivolts, percent, roleLabel, volts } from './figures';
 
 type Shape = ProposalView['shape'];
 type OpKind = ProposalView['operating_point']['kind'];
@@ -33,9 +36,10 @@ const INITIAL: FormState = {
   idMa: '1',
   vdsV: '10',
   rsOhm: '1000',
-  dvgsMv: '10',
-  gmPct: '',
-  idssPct: '',
+  // Common-practice grades (see core/match/grade-warnings.ts).
+  dvgsMv: String(COMMON_PRACTICE_GRADES.maxDvgsV * 1e3),
+  gmPct: String(Math.round(COMMON_PRACTICE_GRADES.maxGmMismatch * 1000) / 10),
+  idssPct: String(Math.round(COMMON_PRACTICE_GRADES.maxIdssMismatch * 1000) / 10),
   marginV: '0.5',
   sameLot: false,
   bins: [],
@@ -66,6 +70,20 @@ function requestBody(f: FormState) {
   };
 }
 
+function askedTolerances(f: FormState): AskedTolerances {
+  const dvgs = num(f.dvgsMv);
+  const gm = num(f.gmPct);
+  const idss = num(f.idssPct);
+  return { maxDvgsV: dvgs === null ? null : dvgs / 1e3, maxGmMismatch: gm === null ? null : gm / 100, maxIdssMismatch: idss === null ? null : idss / 100 };
+}
+
+const VERDICT: Record<ReturnType<typeof proposalVerdict>, { text: string; tag: string }> = {
+  best_possible: { text: 'best possible', tag: 'tag-ok' },
+  not_proven_best: { text: 'good, not proven best', tag: 'tag-review' },
+  outside_common_practice: { text: 'outside common-practice grades', tag: 'tag-fault' },
+  none_found: { text: 'none found', tag: 'tag-plain' },
+};
+
 function Field({ id, label, unit, hint, children }: { id: string; label: string; unit?: string; hint?: string; children: React.ReactNode }) {
   return (
     <div>
@@ -94,6 +112,17 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
   const cascode = proposal.shape === 'cascode_pair' || proposal.shape === 'matched_cascode_pairs';
   const matched = proposal.shape !== 'cascode_pair';
   const base = `/api/match/proposals/${proposal.id}/sets/${set.index + 1}`;
+  const channel = proposal.device_type.channel;
+  const idssOf = (a: number) => idssInDatasheetSign(a, channel);
+  // One unit per column, chosen over the set's parts.
+  const col = {
+    id: columnFormat(set.parts.map((p) => p.id_a), 'A', 3),
+    vds: columnFormat(set.parts.map((p) => p.vds_v), 'V', 3),
+    vgs: columnFormat(set.parts.map((p) => p.vgs_v), 'V', 4, 1e-4),
+    gm: columnFormat(set.parts.map((p) => p.gm_s), 'S', 3),
+    idss: columnFormat(set.parts.map((p) => idssOf(p.idss_a)), 'A', 3),
+  };
+  const outside = matched ? setGradeWarnings({ dvgsV: set.dvgs_v, gmMismatch: set.gm_mismatch, idssMismatch: set.idss_mismatch }) : [];
   return (
     <article className="card p-4" aria-label={`Set ${set.index + 1}`}>
       <header className="flex flex-wrap items-baseline gap-x-4 gap-y-1 mb-3">
@@ -117,6 +146,11 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
           <a href={`${base}/model-cards`}>.model cards</a> · <a href={`${base}/figures.csv`}>CSV</a>
         </span>
       </header>
+      {outside.length > 0 && (
+        <p className="notice-caution mb-3 text-sm" role="note" data-testid="set-grade-warning">
+          Outside common-practice grades: {outside.map((w) => w.message).join('; ')}.
+        </p>
+      )}
       <div className="overflow-x-auto">
         <table className="table-plain">
           <thead>
@@ -125,11 +159,11 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
               <th>Role</th>
               <th>Bin</th>
               <th>Location</th>
-              <th className="num !text-right">ID</th>
-              {cascode && <th className="num !text-right">|VDS|</th>}
-              <th className="num !text-right">VGS</th>
-              <th className="num !text-right">gm</th>
-              <th className="num !text-right">IDSS</th>
+              <th className="num !text-right">|ID| ({col.id.unit})</th>
+              {cascode && <th className="num !text-right">|VDS| ({col.vds.unit})</th>}
+              <th className="num !text-right">VGS ({col.vgs.unit})</th>
+              <th className="num !text-right">gm ({col.gm.unit})</th>
+              <th className="num !text-right">IDSS ({col.idss.unit})</th>
               <th>Lot</th>
             </tr>
           </thead>
@@ -140,11 +174,11 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
                 <td>{roleLabel(p.role, p.cascode_index)}</td>
                 <td>{p.bin_code ?? '—'}</td>
                 <td>{p.location ?? <span className="text-ink-faint">not recorded</span>}</td>
-                <td className="num">{amps(p.id_a, 3)}</td>
-                {cascode && <td className="num">{volts(p.vds_v, 2)}</td>}
-                <td className="num">{volts(p.vgs_v, 4)}</td>
-                <td className="num">{siemens(p.gm_s, 3)}</td>
-                <td className="num">{amps(p.idss_a, 3)}</td>
+                <td className="num">{col.id.number(p.id_a)}</td>
+                {cascode && <td className="num">{col.vds.number(p.vds_v)}</td>}
+                <td className="num">{col.vgs.number(p.vgs_v)}</td>
+                <td className="num">{col.gm.number(p.gm_s)}</td>
+                <td className="num">{col.idss.number(idssOf(p.idss_a))}</td>
                 <td>{p.lot ?? '—'}</td>
               </tr>
             ))}
@@ -203,6 +237,7 @@ export default function MatchRequest() {
   const list = types.data?.device_types ?? [];
   const selected = list.find((t) => t.name === form.deviceType) ?? list[0];
   const cascode = form.shape === 'cascode_pair' || form.shape === 'matched_cascode_pairs';
+  const formWarnings = form.shape === 'cascode_pair' ? [] : toleranceWarnings(askedTolerances(form));
 
   async function propose(e?: FormEvent) {
     e?.preventDefault();
@@ -242,6 +277,20 @@ export default function MatchRequest() {
   if (list.length === 0) return <Empty>No device types yet: an administrator adds them first.</Empty>;
 
   const words = SHAPE_WORDS[proposal?.shape ?? form.shape]!;
+  const verdict = proposal
+    ? VERDICT[
+        proposalVerdict({
+          exact: proposal.guarantee.kind === 'exact',
+          matched: proposal.shape !== 'cascode_pair',
+          tolerances: {
+            maxDvgsV: proposal.tolerances.max_dvgs_v,
+            maxGmMismatch: proposal.tolerances.max_gm_mismatch,
+            maxIdssMismatch: proposal.tolerances.max_idss_mismatch,
+          },
+          sets: proposal.sets.map((s) => ({ dvgsV: s.dvgs_v, gmMismatch: s.gm_mismatch, idssMismatch: s.idss_mismatch })),
+        })
+      ]
+    : VERDICT.none_found;
   return (
     <div className="space-y-6">
       <form onSubmit={propose} className="card space-y-5" aria-label="Match request">
@@ -303,7 +352,12 @@ export default function MatchRequest() {
         </fieldset>
 
         <fieldset>
-          <legend className="field">Tolerances <span className="font-normal text-ink-faint">(leave empty for no limit)</span></legend>
+          <legend className="field">Tolerances</legend>
+          <p className="mb-3 text-xs text-ink-soft" data-testid="common-practice-grades">
+            Starts at common-practice grades for matched duals: |ΔVGS| ≤ {COMMON_PRACTICE_GRADES.maxDvgsV * 1e3} mV at the operating current, IDSS ratio ≥{' '}
+            {(1 - COMMON_PRACTICE_GRADES.maxIdssMismatch).toFixed(2)}, gfs ratio ≥ {(1 - COMMON_PRACTICE_GRADES.maxGmMismatch).toFixed(2)}. Tighten them for a better grade;
+            an empty field means no limit.
+          </p>
           <div className="grid gap-4 md:grid-cols-4">
             {form.shape !== 'cascode_pair' && (
               <>
@@ -324,6 +378,15 @@ export default function MatchRequest() {
               </Field>
             )}
           </div>
+          {formWarnings.length > 0 && (
+            <div className="notice-caution mt-3 text-sm" role="note" data-testid="tolerance-warnings">
+              <ul className="list-disc pl-5">
+                {formWarnings.map((w) => (
+                  <li key={w.figure}>{w.message}</li>
+                ))}
+              </ul>
+            </div>
+          )}
         </fieldset>
 
         <div className="grid gap-4 md:grid-cols-[auto_1fr] items-start">
@@ -395,8 +458,8 @@ export default function MatchRequest() {
             <h2>
               {proposal.sets.length} of {proposal.count_requested} {proposal.count_requested === 1 ? words.one : words.many}
             </h2>
-            <span className={proposal.guarantee.kind === 'exact' ? 'tag-ok' : 'tag-review'} title={proposal.guarantee.note}>
-              {proposal.guarantee.kind === 'exact' ? 'best possible' : 'good, not proven best'}
+            <span className={verdict.tag} title={proposal.guarantee.note} data-testid="proposal-verdict">
+              {verdict.text}
             </span>
             <span className="text-sm text-ink-soft">
               from {proposal.candidates.considered} in-stock {proposal.device_type.name}
@@ -406,6 +469,14 @@ export default function MatchRequest() {
             </span>
           </div>
           <p className="text-sm text-ink-soft">{proposal.guarantee.note}.</p>
+          {verdict === VERDICT.outside_common_practice && (
+            <p className="notice-caution text-sm" role="note">
+              Not called best possible: {toleranceWarnings({ maxDvgsV: proposal.tolerances.max_dvgs_v, maxGmMismatch: proposal.tolerances.max_gm_mismatch, maxIdssMismatch: proposal.tolerances.max_idss_mismatch }).length > 0
+                ? 'the request left a tolerance empty or looser than common practice'
+                : 'a set falls outside the common-practice grades'}
+              ; check the warnings on each set before you reserve.
+            </p>
+          )}
           {proposal.sets.length === 0 ? (
             <Empty>No set in stock meets these tolerances at this operating point. The counts below show which tolerance to loosen.</Empty>
           ) : (

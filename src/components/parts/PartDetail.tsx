@@ -5,7 +5,9 @@ import { pointKey } from '../charts/chart-data';
 import ReviewActions from '../review/ReviewActions';
 import { useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
-import { percent, plain, pm, q, when } from './figures';
+import { idssInDatasheetSign, vdsInDatasheetSign } from '../../core/units/datasheet-sign';
+import { formatMeasuredNumber, formatSignificant } from '../../core/units/format-quantity';
+import { measured, percent, plain, q, when } from './figures';
 import { flagWord, STATUS_WORDS, statusClass, type PartJson } from './part-types';
 
 /** Flat fitter indices of flag-excluded points → "curve:point" keys. */
@@ -30,18 +32,28 @@ function flagExcludedKeys(part: PartJson): Set<string> {
 function ParameterTable({ part }: { part: PartJson }) {
   const se = part.standard_errors ?? {};
   const vds = part.idss_vds_v;
+  // Datasheet signs: a P-channel part's IDSS is negative and its VDS too.
+  const idss = (a: number | null) => (a === null ? null : idssInDatasheetSign(a, part.channel));
+  const vdsText = vds === null ? 'the test VDS' : `VDS = ${formatSignificant(vdsInDatasheetSign(vds, part.channel), 'V', 3)}`;
+  const pSign = part.channel === 'p' ? ' (datasheet sign: negative for P)' : '';
+  const bare = (value: number | null, err: number | null | undefined, scale: number, unit: string): [string, string] => {
+    if (value === null) return ['—', ''];
+    const [v, e] = formatMeasuredNumber(value * scale, err === null || err === undefined ? null : err * scale);
+    return [`${v} ${unit}`, e ? `± ${e} ${unit}` : ''];
+  };
+  const row = (name: string, cells: [string, string], note: string): [string, string, string, string] => [name, cells[0], cells[1], note];
   const rows: [string, string, string, string][] = [
-    ['VTO', q(part.vto_v, 'V', 4), pm(se.vto_v, 'V', 4), 'threshold, N-equivalent sign (negative for NJF and PJF)'],
-    ['BETA', part.beta_a_per_v2 === null ? '—' : `${plain(part.beta_a_per_v2 * 1e3, 4)} mA/V²`, se.beta_a_per_v2 ? `± ${plain(se.beta_a_per_v2 * 1e3, 4)} mA/V²` : '', 'transconductance parameter'],
-    ['LAMBDA', part.lambda_per_v === null ? '—' : `${plain(part.lambda_per_v, 5)} /V`, se.lambda_per_v ? `± ${plain(se.lambda_per_v, 5)} /V` : '', 'channel-length modulation'],
-    ['RS', q(part.rs_ohm, 'Ω', 2), pm(se.rs_ohm, 'Ω', 2), part.model === 'level1+rs_rd' ? 'source resistance (extended fit kept)' : 'not fitted (level-1 model kept)'],
-    ['RD', q(part.rd_ohm, 'Ω', 2), pm(se.rd_ohm, 'Ω', 2), part.model === 'level1+rs_rd' ? 'drain resistance (extended fit kept)' : 'not fitted (level-1 model kept)'],
-    [`IDSS at |VDS| = ${plain(vds, 0)} V`, q(part.idss_a, 'A', 3), pm(se.idss_a, 'A', 3), 'from the model, VGS = 0'],
-    ['IDSS measured', q(part.idss_measured_a, 'A', 3), '', part.idss_measured_a === null ? 'the sweep does not cover that point' : 'read from the VGS = 0 curve'],
-    ['VP (square-law pinch-off)', q(part.vp_v, 'V', 3), pm(se.vp_v, 'V', 3), 'datasheet sign; an extrapolation, not a VGS(off) at nA'],
-    [`gfs at VGS = 0`, q(part.gfs_s, 'S', 2), pm(se.gfs_s, 'S', 2), `at |VDS| = ${plain(vds, 0)} V`],
-    [`gos at IDSS`, q(part.gos_s, 'S', 2), pm(se.gos_s, 'S', 2), `at |VDS| = ${plain(vds, 0)} V`],
-    ['rDS(on)', q(part.rds_on_ohm, 'Ω', 1), pm(se.rds_on_ohm, 'Ω', 1), 'VGS = 0, small VDS'],
+    row('VTO', measured(part.vto_v, se.vto_v, 'V'), 'threshold, N-equivalent sign (negative for NJF and PJF)'),
+    row('BETA', bare(part.beta_a_per_v2, se.beta_a_per_v2, 1e3, 'mA/V²'), 'transconductance parameter'),
+    row('LAMBDA', bare(part.lambda_per_v, se.lambda_per_v, 1, '/V'), 'channel-length modulation'),
+    row('RS', measured(part.rs_ohm, se.rs_ohm, 'Ω'), part.model === 'level1+rs_rd' ? 'source resistance (extended fit kept)' : 'not fitted (level-1 model kept)'),
+    row('RD', measured(part.rd_ohm, se.rd_ohm, 'Ω'), part.model === 'level1+rs_rd' ? 'drain resistance (extended fit kept)' : 'not fitted (level-1 model kept)'),
+    row(`IDSS at ${vdsText}`, measured(idss(part.idss_a), se.idss_a, 'A'), `from the model, VGS = 0${pSign}`),
+    row('IDSS measured', measured(idss(part.idss_measured_a), null, 'A'), part.idss_measured_a === null ? 'the sweep does not cover that point' : 'read from the VGS = 0 curve'),
+    row('VP (square-law pinch-off)', measured(part.vp_v, se.vp_v, 'V'), 'datasheet sign; an extrapolation, not a VGS(off) at nA'),
+    row('gfs at VGS = 0', measured(part.gfs_s, se.gfs_s, 'S'), `at ${vdsText}`),
+    row('gos at IDSS', measured(part.gos_s, se.gos_s, 'S'), `at ${vdsText}`),
+    row('rDS(on)', measured(part.rds_on_ohm, se.rds_on_ohm, 'Ω'), 'VGS = 0, small VDS'),
     ['RMS residual', `${q(part.rms_a, 'A', 2)} (${percent(part.rms_rel)} of IDSS)`, '', `R² ${part.r_squared === null ? '—' : part.r_squared.toFixed(5)}, ${part.points_fitted ?? '—'} points, ${part.iterations ?? '—'} iterations`],
   ];
   return (
@@ -253,7 +265,7 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
                 <td>
                   {s.fits.map((f) => (
                     <div key={f.fit_id} className="text-xs">
-                      fit {f.fit_id}: IDSS {q(f.idss_a, 'A', 2)}, VP {q(f.vp_v, 'V', 2)}, {f.review.replace('_', ' ')}
+                      fit {f.fit_id}: IDSS {formatSignificant(idssInDatasheetSign(f.idss_a, part.channel), 'A', 3)}, VP {formatSignificant(f.vp_v, 'V', 3)}, {f.review.replace('_', ' ')}
                       {f.flags.length ? ` — ${f.flags.map(flagWord).join(', ')}` : ''}
                       {f.is_current ? ' (current)' : ''}
                     </div>

@@ -1,4 +1,5 @@
-import { formatQuantity, MINUS_SIGN, type QuantityUnit } from '../../core/units/format-quantity';
+import { formatDateTime } from '../../core/units/format-date';
+import { formatMeasured, formatQuantity, MINUS_SIGN, type QuantityUnit } from '../../core/units/format-quantity';
 
 export function q(value: number | null | undefined, unit: QuantityUnit, digits = 2): string {
   return value === null || value === undefined ? '—' : formatQuantity(value, unit, digits);
@@ -19,8 +20,15 @@ export function percent(value: number | null | undefined, digits = 2): string {
   return value === null || value === undefined || !Number.isFinite(value) ? '—' : `${(value * 100).toFixed(digits)} %`;
 }
 
-export function when(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const d = new Date(iso);
-  return d.toLocaleString('en-GB', { year: 'numeric', month: 'short', day: '2-digit', hour: '2-digit', minute: '2-digit' });
+/** The one date-and-time format (ISO 8601, UTC). */
+export const when = (iso: string | null | undefined): string => formatDateTime(iso);
+
+/**
+ * A figure and its standard error as two table cells, both rounded to the error's last
+ * significant digit ("−543.4 mV", "± 0.5 mV").
+ */
+export function measured(value: number | null | undefined, se: number | null | undefined, unit: QuantityUnit): [string, string] {
+  if (value === null || value === undefined) return ['—', ''];
+  const m = formatMeasured(value, se, unit);
+  return [m.value, m.uncertainty ? `± ${m.uncertainty}` : ''];
 }

@@ -1,7 +1,10 @@
-import { useMemo, useState, type FormEvent } from 'react';
+import { useMemo, useState, type CSSProperties, type FormEvent } from 'react';
 import type { StatisticsReport } from '../../lib/server/services/statistics/get';
 import type { StatisticsOptions } from '../../lib/server/services/statistics/list-options';
 import type { TypeStatistics } from '../../lib/server/services/statistics/compute-report';
+import { formatDate } from '../../core/units/format-date';
+import { binShareGrid, type BinShareGrid } from '../../core/statistics/bin-share-grid';
+import { formatMeasured, formatNumber, formatPercent, formatQuantityRange, type QuantityUnit } from '../../core/units/format-quantity';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { ChartCard } from './chart-kit';
@@ -27,10 +30,24 @@ function toQuery(s: Selection): string {
   return p.toString();
 }
 
-/** A figure in its display unit, with the true minus sign. */
-function shown(v: number | null | undefined, key: DisplayKey, digits = 4): string {
+/**
+ * A figure in its display unit with that unit's fixed number of decimals (one unit and one
+ * resolution per column), with the true minus sign.
+ */
+function shown(v: number | null | undefined, key: DisplayKey, extraDigits = 0): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—';
-  return Number((v * DISPLAY[key].factor).toPrecision(digits)).toString().replace('-', '\u2212');
+  return formatNumber(v * DISPLAY[key].factor, DISPLAY[key].decimals + extraDigits);
+}
+
+const SI_UNIT: Record<DisplayKey, QuantityUnit> = { idss_a: 'A', vp_v: 'V', gos_s: 'S', gfs_s: 'S' };
+
+/** "drift −12 ± 5 mV per 30 days over 96 days (6 lots)", or why there is none. */
+function driftText(d: TypeStatistics['trend']['drift'][DisplayKey], key: DisplayKey): string {
+  if (!d.enough || d.per_day === null) return d.reason ?? 'Not enough lots for a trend.';
+  const [period, periodDays] = d.span_days > 400 ? ['per year', 365] : ['per 30 days', 30];
+  const m = formatMeasured(d.per_day * periodDays, d.se_per_day === null ? null : d.se_per_day * periodDays, SI_UNIT[key]);
+  const significant = d.se_per_day !== null && Math.abs(d.per_day) > 2 * d.se_per_day;
+  return `drift ${m.text} ${period} over ${Math.round(d.span_days)} days (${d.lots} lots, least squares, ± one standard error)${significant ? '' : '; not distinguishable from no drift'}`;
 }
 
 function pct(v: number | null): string {
@@ -79,7 +96,7 @@ function SummaryTable({ g, query }: { g: TypeStatistics; query: string }) {
         <tbody>
           {FIGURE_KEYS.map((k) => {
             const f = g.figures[k];
-            const limits = f.lsl === null && f.usl === null ? '—' : `${f.lsl === null ? '…' : shown(f.lsl, k, 3)} to ${f.usl === null ? '…' : shown(f.usl, k, 3)}`;
+            const limits = f.lsl === null && f.usl === null ? '—' : `${f.lsl === null ? '…' : shown(f.lsl, k)} to ${f.usl === null ? '…' : shown(f.usl, k)}`;
             return (
               <tr key={k}>
                 <td className="whitespace-nowrap">
@@ -87,7 +104,7 @@ function SummaryTable({ g, query }: { g: TypeStatistics; query: string }) {
                 </td>
                 <td className="num">{f.n}</td>
                 <td className="num">{shown(f.mean, k)}</td>
-                <td className="num">{shown(f.sd, k, 3)}</td>
+                <td className="num">{shown(f.sd, k)}</td>
                 <td className="num">{shown(f.min, k)}</td>
                 <td className="num">{shown(f.p5, k)}</td>
                 <td className="num">{shown(f.p25, k)}</td>
@@ -112,11 +129,97 @@ function SummaryTable({ g, query }: { g: TypeStatistics; query: string }) {
   );
 }
 
+/** A shade of the channel colour for a share of the busiest cell (0 → paper, 1 → full). */
+function cellShade(count: number, maxCount: number): CSSProperties {
+  if (count === 0 || maxCount === 0) return {};
+  const t = 0.12 + 0.88 * (count / maxCount);
+  return { backgroundColor: `rgba(33, 126, 122, ${t.toFixed(3)})`, color: t > 0.55 ? '#fff' : undefined };
+}
+
+const rangeText = (r: { lo: number; hi: number } | null, unit: 'A' | 'V') => (r ? formatQuantityRange(r.lo, r.hi, unit, unit === 'A' ? 1 : 2) : 'all');
+
+/** Share per bin drawn over the plan's grid: IDSS across, VP down; shade by count. */
+function BinShareGridView({ grid, labelOf }: { grid: BinShareGrid; labelOf: (code: string) => string }) {
+  return (
+    <div>
+      <div className="overflow-x-auto" data-testid="bin-share-grid">
+        <table className="border-collapse text-xs" aria-label="Parts per bin over VP and IDSS">
+          <thead>
+            <tr>
+              <th className="px-1 py-1 text-left font-semibold text-ink-soft whitespace-nowrap">VP ↓ · IDSS →</th>
+              {grid.idss.map((r, i) => (
+                <th key={i} scope="col" className="px-1 py-1 font-normal text-ink-soft whitespace-nowrap [writing-mode:vertical-rl] rotate-180 h-24 align-bottom">
+                  {rangeText(r, 'A')}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {grid.vp.map((r, ri) => (
+              <tr key={ri}>
+                <th scope="row" className="px-1 py-0.5 text-right font-normal text-ink-soft whitespace-nowrap">
+                  {rangeText(r, 'V')}
+                </th>
+                {grid.cells[ri].map((c, ci) => (
+                  <td
+                    key={ci}
+                    className="h-8 min-w-[2.25rem] border border-paper-line text-center tabular-nums"
+                    style={c ? cellShade(c.count, grid.maxCount) : { background: 'repeating-linear-gradient(45deg, transparent 0 4px, rgba(0,0,0,0.06) 4px 5px)' }}
+                    title={c ? `${c.code} · ${labelOf(c.code)}: ${c.count} parts (${formatPercent(c.share)})` : 'no bin'}
+                  >
+                    {c && c.count > 0 ? c.count : ''}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="mt-2 text-xs text-ink-soft">
+        Each cell is one bin; the number is its parts, darker is more (busiest: {grid.maxCount}). Hover a cell for its code and share.
+        {grid.offGrid.map((o) => ` ${o.code}: ${o.count} parts (${formatPercent(o.share)}).`).join('')}
+      </p>
+    </div>
+  );
+}
+
+function BinShareList({ g, maxShare }: { g: TypeStatistics; maxShare: number }) {
+  return (
+    <table className="table-plain">
+      <thead>
+        <tr>
+          <th>Bin</th>
+          <th className="num">parts</th>
+          <th className="num">share</th>
+          <th className="w-2/5">
+            <span className="sr-only">bar</span>
+          </th>
+        </tr>
+      </thead>
+      <tbody>
+        {g.bins.map((b) => (
+          <tr key={b.code}>
+            <td>
+              <span className="font-mono text-xs">{b.code}</span> <span className="text-ink-soft text-xs">{b.label !== b.code ? b.label : ''}</span>
+            </td>
+            <td className="num">{b.count}</td>
+            <td className="num">{pct(b.share)}</td>
+            <td>
+              <div className="h-3 rounded-sm bg-channel-400" style={{ width: `${((b.share ?? 0) / maxShare) * 100}%` }} aria-hidden="true" />
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
 function YieldAndBins({ g, query }: { g: TypeStatistics; query: string }) {
   const y = g.yield;
   const maxShare = Math.max(0.0001, ...g.bins.map((b) => b.share ?? 0));
+  const grid = useMemo(() => binShareGrid(g.bins), [g.bins]);
   return (
-    <div className="grid gap-4 lg:grid-cols-2">
+    <div className={grid ? 'grid gap-4' : 'grid gap-4 lg:grid-cols-2'}>
       <section className="card" aria-label="Yield">
         <div className="flex flex-wrap items-baseline justify-between gap-2 mb-2">
           <h3>Yield</h3>
@@ -167,33 +270,10 @@ function YieldAndBins({ g, query }: { g: TypeStatistics; query: string }) {
         </div>
         {g.bins.length === 0 ? (
           <Empty>No binned parts here{g.unbinned_count ? `: ${g.unbinned_count} parts have no bin yet` : ''}. Bins come from the type’s active bin plan.</Empty>
+        ) : grid ? (
+          <BinShareGridView grid={grid} labelOf={(code) => g.bins.find((b) => b.code === code)?.label ?? code} />
         ) : (
-          <table className="table-plain">
-            <thead>
-              <tr>
-                <th>Bin</th>
-                <th className="num">parts</th>
-                <th className="num">share</th>
-                <th className="w-2/5">
-                  <span className="sr-only">bar</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {g.bins.map((b) => (
-                <tr key={b.code}>
-                  <td>
-                    <span className="font-mono text-xs">{b.code}</span> <span className="text-ink-soft text-xs">{b.label !== b.code ? b.label : ''}</span>
-                  </td>
-                  <td className="num">{b.count}</td>
-                  <td className="num">{pct(b.share)}</td>
-                  <td>
-                    <div className="h-3 rounded-sm bg-channel-400" style={{ width: `${((b.share ?? 0) / maxShare) * 100}%` }} aria-hidden="true" />
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <BinShareList g={g} maxShare={maxShare} />
         )}
         {g.bins.length > 0 && <p className="text-xs text-ink-faint mt-2">Shares of the {g.part_count - g.unbinned_count} binned parts; {g.unbinned_count} without a bin.</p>}
       </section>
@@ -203,7 +283,7 @@ function YieldAndBins({ g, query }: { g: TypeStatistics; query: string }) {
 
 function TrendSection({ g, query, fileStem }: { g: TypeStatistics; query: string; fileStem: string }) {
   const [figure, setFigure] = useState<DisplayKey>('idss_a');
-  const drift = g.trend.drift_per_day[figure];
+  const drift = g.trend.drift[figure];
   const lots = g.trend.lots.map((l) => ({ ...l, mean: l[`${figure}_mean`] }));
   return (
     <section className="grid gap-4 lg:grid-cols-[3fr_2fr]">
@@ -211,13 +291,7 @@ function TrendSection({ g, query, fileStem }: { g: TypeStatistics; query: string
         title={`Lot means of ${DISPLAY[figure].label} over time`}
         subtitle={
           <>
-            {g.trend.lots.length} lots by date received
-            {drift !== null && (
-              <>
-                {' '}
-                · drift {shown(drift * 30, figure, 3)} {DISPLAY[figure].unit} per 30 days (least squares)
-              </>
-            )}
+            {g.trend.lots.length} lots by date received · <span data-testid="trend-drift">{driftText(drift, figure)}</span>
             {g.trend.lots.some((l) => l.selected) && ' · the selected lot in red'}
           </>
         }
@@ -258,10 +332,10 @@ function TrendSection({ g, query, fileStem }: { g: TypeStatistics; query: string
                     {l.lot_code}
                     {l.supplier && <span className="block text-xs text-ink-faint">{l.supplier}</span>}
                   </td>
-                  <td className="whitespace-nowrap">{l.received_at.slice(0, 10)}</td>
+                  <td className="whitespace-nowrap">{formatDate(l.received_at)}</td>
                   <td className="num">{l.n}</td>
                   <td className="num">{shown(l[`${figure}_mean`], figure)}</td>
-                  <td className="num">{shown(l[`${figure}_sd`], figure, 3)}</td>
+                  <td className="num">{shown(l[`${figure}_sd`], figure)}</td>
                 </tr>
               ))}
             </tbody>
@@ -281,8 +355,8 @@ function TypeGroup({ g, query }: { g: TypeStatistics; query: string }) {
         <h2>{t.name}</h2>
         <span className="tag-plain">{t.channel === 'n' ? 'N-channel' : 'P-channel'}</span>
         <span className="text-sm text-ink-soft">
-          {g.part_count} parts, {g.fitted_count} with a current fit · spec IDSS {shown(t.idss_min_a, 'idss_a', 3)} to {shown(t.idss_max_a, 'idss_a', 3)} mA at {t.vds_test_v} V, VP{' '}
-          {shown(t.vp_min_v, 'vp_v', 3)} to {shown(t.vp_max_v, 'vp_v', 3)} V
+          {g.part_count} parts, {g.fitted_count} with a current fit · spec IDSS {shown(t.idss_min_a, 'idss_a')} to {shown(t.idss_max_a, 'idss_a')} mA at {t.vds_test_v} V, VP{' '}
+          {shown(t.vp_min_v, 'vp_v')} to {shown(t.vp_max_v, 'vp_v')} V
         </span>
       </header>
       {g.part_count === 0 ? (
@@ -300,7 +374,7 @@ function TypeGroup({ g, query }: { g: TypeStatistics; query: string }) {
           <div className="grid gap-4 md:grid-cols-2">
             {FIGURE_KEYS.map((k) => {
               const f = g.figures[k];
-              const limits = f.lsl !== null || f.usl !== null ? ` · spec ${f.lsl === null ? '…' : shown(f.lsl, k, 3)} to ${f.usl === null ? '…' : shown(f.usl, k, 3)} ${DISPLAY[k].unit} (dashed)` : '';
+              const limits = f.lsl !== null || f.usl !== null ? ` · spec ${f.lsl === null ? '…' : shown(f.lsl, k)} to ${f.usl === null ? '…' : shown(f.usl, k)} ${DISPLAY[k].unit} (dashed)` : '';
               return (
                 <ChartCard key={k} title={`${DISPLAY[k].label} (${DISPLAY[k].unit})`} subtitle={`${f.n} parts${limits}`} fileName={`${fileStem}-histogram-${k}`} height={230}>
                   {(w) => (f.n === 0 ? <Empty>No fitted parts.</Empty> : <HistogramChart width={w} height={230} figure={k} bins={f.histogram} lsl={f.lsl} usl={f.usl} />)}

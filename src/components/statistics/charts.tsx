@@ -3,10 +3,10 @@ import { CHART_COLORS, chartTheme } from './chart-kit';
 
 /** Display scale of each figure: SI value × factor, shown in `unit`. */
 export const DISPLAY = {
-  idss_a: { factor: 1e3, unit: 'mA', label: 'IDSS' },
-  vp_v: { factor: 1, unit: 'V', label: 'VP' },
-  gos_s: { factor: 1e6, unit: 'µS', label: 'gos' },
-  gfs_s: { factor: 1e3, unit: 'mS', label: 'gfs' },
+  idss_a: { factor: 1e3, unit: 'mA', label: 'IDSS', decimals: 3 },
+  vp_v: { factor: 1, unit: 'V', label: 'VP', decimals: 3 },
+  gos_s: { factor: 1e6, unit: 'µS', label: 'gos', decimals: 2 },
+  gfs_s: { factor: 1e3, unit: 'mS', label: 'gfs', decimals: 3 },
 } as const;
 export type DisplayKey = keyof typeof DISPLAY;
 

@@ -119,3 +119,137 @@ export function formatQuantityRange(
   const joiner = a.startsWith(MINUS_SIGN) || b.startsWith(MINUS_SIGN) ? ' to ' : '–';
   return `${a}${joiner}${b} ${prefix.symbol}${unit}`;
 }
+
+/**
+ * Significant digits of an uncertainty: two when its leading digits read 100–354, else one
+ * (the Particle Data Group's rounding rule, from memory), so 0.4746 mV prints "0.5 mV" and
+ * 0.1234 mV "0.12 mV". Never more than two: GUM (JCGM 100:2008) 7.2.6, from memory.
+ */
+export function uncertaintyDigits(uncertainty: number): 1 | 2 {
+  const u = Math.abs(uncertainty);
+  if (!(u > 0) || !Number.isFinite(u)) return 1;
+  const lead3 = Math.floor(Number((u / 10 ** (Math.floor(Math.log10(u)) - 2)).toPrecision(6)));
+  return lead3 < 355 ? 2 : 1;
+}
+
+/** Decimal exponent of the last significant digit of `x` rounded to `sig` digits. */
+function lastDigitExponent(x: number, sig: number): number {
+  const rounded = Number(Math.abs(x).toPrecision(sig));
+  return Math.floor(Math.log10(rounded)) - sig + 1;
+}
+
+export interface MeasuredText {
+  /** "−543.4 mV" */
+  value: string;
+  /** "0.5 mV" (no sign); "" when the uncertainty is unknown. */
+  uncertainty: string;
+  /** "−543.4 mV ± 0.5 mV", or the value alone. */
+  text: string;
+}
+
+/**
+ * A figure with its standard uncertainty, both in the value's prefix and rounded to the
+ * uncertainty's last significant digit: (−0.5433969 V, 0.00047 V) → "−543.4 mV ± 0.5 mV".
+ * Without a usable uncertainty the value gets `fallbackSig` significant digits.
+ */
+export function formatMeasured(
+  value: number,
+  uncertainty: number | null | undefined,
+  unit: QuantityUnit,
+  fallbackSig = 4,
+): MeasuredText {
+  if (!Number.isFinite(value)) return { value: '—', uncertainty: '', text: '—' };
+  const u = uncertainty === null || uncertainty === undefined ? NaN : Math.abs(uncertainty);
+  if (!(u > 0) || !Number.isFinite(u)) {
+    const v = formatSignificant(value, unit, fallbackSig);
+    return { value: v, uncertainty: '', text: v };
+  }
+  const exponent = lastDigitExponent(u, uncertaintyDigits(u));
+  const prefix = chooseUnitPrefix(Math.abs(value) >= u ? value : u, unit, 0);
+  const digits = Math.max(0, Math.round(Math.log10(prefix.factor)) - exponent);
+  const v = `${formatNumber(value / prefix.factor, digits)} ${prefix.symbol}${unit}`;
+  const e = `${formatNumber(u / prefix.factor, digits)} ${prefix.symbol}${unit}`;
+  return { value: v, uncertainty: e, text: `${v} ± ${e}` };
+}
+
+/**
+ * A figure with no stated uncertainty to `sig` significant digits, trailing zeros kept
+ * ("680 Ω", "266.1 µS", "2.500 mA").
+ */
+export function formatSignificant(value: number, unit: QuantityUnit, sig = 4): string {
+  if (!Number.isFinite(value)) return '—';
+  if (value === 0) return `0 ${chooseUnitPrefix(0, unit).symbol}${unit}`;
+  const rounded = Number(value.toPrecision(sig));
+  const prefix = chooseUnitPrefix(rounded, unit, 0);
+  const exponent = lastDigitExponent(rounded, sig);
+  const digits = Math.max(0, Math.round(Math.log10(prefix.factor)) - exponent);
+  return `${formatNumber(rounded / prefix.factor, digits)} ${prefix.symbol}${unit}`;
+}
+
+export interface ColumnFormat {
+  /** The column's unit with its one prefix, for the heading: "mV". */
+  unit: string;
+  /** A value of the column as a bare number in that unit: "−646.2". */
+  number: (value: number | null | undefined) => string;
+  /** A value with the column's unit: "−646.2 mV". */
+  text: (value: number | null | undefined) => string;
+}
+
+/**
+ * One prefix and one number of fraction digits for every value of a table column, so
+ * −0.64623 V and −2.24 V read "−0.646 V" and "−2.240 V", never "−646.23 mV" beside "−2.24 V".
+ * The prefix suits the largest magnitude; the fraction digits give it `sig` significant digits
+ * (more when `resolution` — the finest step worth showing, e.g. the typical uncertainty — asks).
+ */
+export function columnFormat(values: readonly (number | null | undefined)[], unit: QuantityUnit, sig = 4, resolution?: number): ColumnFormat {
+  const finite = values.filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
+  const largest = finite.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+  const prefix = chooseUnitPrefix(largest, unit, 0);
+  const scaledLargest = largest / prefix.factor;
+  let digits = scaledLargest > 0 ? Math.max(0, sig - 1 - Math.floor(Math.log10(scaledLargest))) : 0;
+  if (resolution !== undefined && resolution > 0 && Number.isFinite(resolution)) {
+    const exponent = lastDigitExponent(resolution, uncertaintyDigits(resolution));
+    digits = Math.max(0, Math.round(Math.log10(prefix.factor)) - exponent);
+  }
+  const number = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? formatNumber(v / prefix.factor, digits) : '—');
+  const symbol = `${prefix.symbol}${unit}`;
+  return { unit: symbol, number, text: (v) => (typeof v === 'number' && Number.isFinite(v) ? `${number(v)} ${symbol}` : '—') };
+}
+
+/**
+ * A range whose ends may be open ("…"): both ends in one unit, as `formatQuantityRange`;
+ * one end alone as "≥ 6.0 mA" / "≤ −0.5 V"; neither as "—".
+ */
+export function formatOpenRange(lo: number | null | undefined, hi: number | null | undefined, unit: QuantityUnit, digits = 2): string {
+  const has = (v: number | null | undefined): v is number => typeof v === 'number' && Number.isFinite(v);
+  if (has(lo) && has(hi)) return formatQuantityRange(lo, hi, unit, digits);
+  if (has(lo)) return `≥ ${formatQuantity(lo, unit, digits)}`;
+  if (has(hi)) return `≤ ${formatQuantity(hi, unit, digits)}`;
+  return '—';
+}
+
+/** A plain ratio or count-like number with the true minus sign: formatRatio(0.9512, 3) → "0.951". */
+export function formatPlain(value: number | null | undefined, digits: number): string {
+  return typeof value === 'number' && Number.isFinite(value) ? formatNumber(value, digits) : '—';
+}
+
+/** A share as a percentage: formatPercent(0.279, 1) → "27.9 %". */
+export function formatPercent(share: number | null | undefined, digits = 1): string {
+  return typeof share === 'number' && Number.isFinite(share) ? `${formatNumber(share * 100, digits)} %` : '—';
+}
+
+/**
+ * A bare number and its uncertainty for units without SI prefixes here (mA/V², /V), both
+ * rounded to the uncertainty's last significant digit: (0.0123456, 0.00021) → ["0.01235", "0.00021"].
+ */
+export function formatMeasuredNumber(value: number, uncertainty: number | null | undefined, fallbackSig = 4): [string, string] {
+  if (!Number.isFinite(value)) return ['—', ''];
+  const u = uncertainty === null || uncertainty === undefined ? NaN : Math.abs(uncertainty);
+  if (!(u > 0) || !Number.isFinite(u)) {
+    if (value === 0) return ['0', ''];
+    const digits = Math.max(0, -lastDigitExponent(value, fallbackSig));
+    return [formatNumber(Number(value.toPrecision(fallbackSig)), digits), ''];
+  }
+  const digits = Math.max(0, -lastDigitExponent(u, uncertaintyDigits(u)));
+  return [formatNumber(value, digits), formatNumber(u, digits)];
+}

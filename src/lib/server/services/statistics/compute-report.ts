@@ -39,7 +39,14 @@ export interface StatisticsTypeInfo {
   vpMinV: number | null;
   vpMaxV: number | null;
   /** Bins of the active plan, in plan order; empty when the type has no active plan. */
-  bins: { code: string; label: string }[];
+  bins: { code: string; label: string; ranges: BinRangeJson[] }[];
+}
+
+/** A bin's range on one plan axis as stored: SI, datasheet sign, [loValue, hiValue). */
+export interface BinRangeJson {
+  quantity: string;
+  loValue: number;
+  hiValue: number;
 }
 
 export interface TrendLotInfo {
@@ -97,7 +104,8 @@ export interface TypeStatistics {
     yield_share: number | null;
     by_status: { status: string; group: YieldGroup | 'other'; count: number; share: number | null }[];
   };
-  bins: { code: string; label: string; count: number; share: number | null }[];
+  /** `ranges`: the bin's range per plan axis (empty for the hold bin), for the grid picture. */
+  bins: { code: string; label: string; count: number; share: number | null; ranges: BinRangeJson[] }[];
   unbinned_count: number;
   trend: {
     lots: ({
@@ -108,8 +116,10 @@ export interface TypeStatistics {
       selected: boolean;
       n: number;
     } & Record<`${FigureKey}_mean` | `${FigureKey}_sd`, number | null>)[];
-    /** Least-squares slope of lot means against receipt date, per day, in the figure's unit. */
+    /** Least-squares slope of lot means against receipt date, per day, in the figure's unit; null when there is not enough for a trend. */
     drift_per_day: Record<FigureKey, number | null>;
+    /** The same slope with its standard error, and why there is none when there is not enough (see `TREND_MINIMUM`). */
+    drift: Record<FigureKey, { per_day: number | null; se_per_day: number | null; span_days: number; lots: number; enough: boolean; reason: string | null }>;
   };
 }
 
@@ -207,6 +217,7 @@ export function buildTypeStatistics(args: {
 
   const binned = rows.filter((r) => r.binCode !== null).map((r) => r.binCode as string);
   const labelByCode = new Map(type.bins.map((b) => [b.code, b.label]));
+  const rangesByCode = new Map(type.bins.map((b) => [b.code, b.ranges]));
   const shares = binShares(binned, type.bins.map((b) => b.code));
 
   const valuesByLot = new Map<number, StatisticsPartRow[]>();
@@ -278,11 +289,17 @@ export function buildTypeStatistics(args: {
       yield_share: y.yieldShare,
       by_status: y.entries.map((e) => ({ status: e.status, group: groupOf(e.status), count: e.count, share: e.share })),
     },
-    bins: shares.map((s) => ({ code: s.code, label: labelByCode.get(s.code) ?? s.code, count: s.count, share: s.share })),
+    bins: shares.map((s) => ({ code: s.code, label: labelByCode.get(s.code) ?? s.code, count: s.count, share: s.share, ranges: rangesByCode.get(s.code) ?? [] })),
     unbinned_count: rows.length - binned.length,
     trend: {
       lots: trendLotsOut,
       drift_per_day: Object.fromEntries(FIGURES.map((f) => [f.key, trends[f.key].driftPerDay])) as Record<FigureKey, number | null>,
+      drift: Object.fromEntries(
+        FIGURES.map((f) => {
+          const t = trends[f.key];
+          return [f.key, { per_day: t.driftPerDay, se_per_day: t.driftSePerDay, span_days: t.spanDays, lots: t.lotCount, enough: t.enough, reason: t.notEnoughReason }];
+        }),
+      ) as TypeStatistics['trend']['drift'],
     },
   };
 }

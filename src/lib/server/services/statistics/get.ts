@@ -4,6 +4,7 @@ import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
 import {
   buildTypeStatistics,
+  type BinRangeJson,
   type StatisticsPartRow,
   type StatisticsTypeInfo,
   type TrendLotInfo,
@@ -122,7 +123,7 @@ export async function getStatistics({ actor, input }: { actor: Actor | null; inp
     : [];
   const bins = plans.length
     ? await db
-        .select({ binPlanId: schema.bin.binPlanId, code: schema.bin.code, label: schema.bin.label })
+        .select({ binPlanId: schema.bin.binPlanId, code: schema.bin.code, label: schema.bin.label, ranges: schema.bin.ranges })
         .from(schema.bin)
         .where(inArray(schema.bin.binPlanId, plans.map((p) => p.planId)))
         .orderBy(asc(schema.bin.id))
@@ -155,7 +156,7 @@ export async function getStatistics({ actor, input }: { actor: Actor | null; inp
       idssMaxA: t.idssMaxA,
       vpMinV: t.vpMinV,
       vpMaxV: t.vpMaxV,
-      bins: bins.filter((b) => planIds.includes(b.binPlanId)).map((b) => ({ code: b.code, label: b.label })),
+      bins: bins.filter((b) => planIds.includes(b.binPlanId)).map((b) => ({ code: b.code, label: b.label, ranges: (b.ranges ?? []) as BinRangeJson[] })),
     };
     const trendLots: TrendLotInfo[] = lots.filter((l) => l.deviceTypeId === t.id);
     return buildTypeStatistics({
