@@ -1,4 +1,5 @@
 import { useEffect, useState, type FormEvent } from 'react';
+import { safeNextPath } from '../../lib/safe-next-path';
 
 /** Signs in through better-auth's e-mail endpoint, then goes to `next`. */
 export default function SignInForm({ next }: { next: string }) {
@@ -20,10 +21,11 @@ export default function SignInForm({ next }: { next: string }) {
         body: JSON.stringify({ email: form.get('email'), password: form.get('password') }),
       });
       if (res.ok) {
-        window.location.assign(next);
+        // Checked again here: the page is not the only way this prop can be set.
+        window.location.assign(safeNextPath(next));
         return;
       }
-      if (res.status === 429) setError('Too many sign-in attempts from here. Wait a minute, then try again.');
+      if (res.status === 429) setError('Too many failed sign-ins for this account or from this address. Wait a few minutes, then try again.');
       else if (res.status === 401) setError('That e-mail and password do not match an active account.');
       else if (res.status === 403) setError('This account is disabled. Ask an admin.');
       else setError(`Sign-in failed (the server answered ${res.status}).`);

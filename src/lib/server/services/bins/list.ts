@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import { writeCsv } from '../../../../core/csv/write-csv';
 import { getDb, schema, type DbOrTx } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 import { binJson, type BinJson } from './bin-json';
@@ -115,16 +116,11 @@ const CSV_COLUMNS: [string, (b: BinJson) => string | number | null][] = [
   ['low_stock_threshold', (b) => b.low_stock_threshold],
 ];
 
-function csvCell(v: string | number | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  return /[",\r\n]/.test(s) || /^[=+\-@]/.test(s) && typeof v === 'string' ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** The same rows as the table (all pages), as RFC 4180 CSV with a header line. */
+/** The same rows as the table (all pages), as CSV with a header line (the shared writer). */
 export async function binStockCsv({ actor, query }: { actor: Actor | null; query: unknown }): Promise<string> {
   const page = await listBinStock({ actor, query, all: true });
-  const lines = [CSV_COLUMNS.map(([h]) => h).join(',')];
-  for (const b of page.bins) lines.push(CSV_COLUMNS.map(([, f]) => csvCell(f(b))).join(','));
-  return lines.join('\r\n') + '\r\n';
+  return writeCsv(
+    CSV_COLUMNS.map(([h]) => h),
+    page.bins.map((b) => CSV_COLUMNS.map(([, f]) => f(b))),
+  );
 }

@@ -1,4 +1,5 @@
 import { eq, inArray } from 'drizzle-orm';
+import { writeCsv } from '../../../../core/csv/write-csv';
 import { formatModelCard } from '../../../../core/fit/model-card';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
@@ -22,11 +23,6 @@ const CSV_COLUMNS = [
   'set_dvgs_v', 'set_gm_mismatch', 'set_idss_mismatch', 'set_cascode_headroom_v',
 ] as const;
 
-function csvCell(v: unknown): string {
-  if (v === null || v === undefined) return '';
-  const s = typeof v === 'number' ? String(v) : String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
 
 function describeOperatingPoint(op: StoredProposalResult['operating_point']): string {
   if (op.kind === 'current') return `ID = ${op.id_a} A, VDS = ${op.vds_v} V`;
@@ -71,18 +67,16 @@ async function exportSet(result: StoredProposalResult, setNo: number, label: str
     }
     return { filename: `${base}.lib`, contentType: 'text/plain; charset=utf-8', body: lines.join('\n') + '\n' };
   }
-  const out = [CSV_COLUMNS.join(',')];
-  for (const p of set.parts) {
+  const csvRows = set.parts.map((p) => {
     const f = fitOf.get(p.part_id);
-    const row = [
+    return [
       setNo, p.role, p.cascode_index !== undefined ? p.cascode_index + 1 : '', p.serial, p.lot, p.bin_code, p.location,
       channel === 'n' ? p.id_a : -p.id_a, channel === 'n' ? p.vds_v : -p.vds_v, p.vgs_v, p.gm_s, p.idss_a, p.vds_sat_v,
       f?.fit.vtoV, f?.fit.betaAPerV2, f?.fit.lambdaPerV, f?.fit.rsOhm, f?.fit.rdOhm, f?.temperatureC,
       set.dvgs_v, set.gm_mismatch, set.idss_mismatch, set.cascode_headroom_v,
     ];
-    out.push(row.map(csvCell).join(','));
-  }
-  return { filename: `${base}.csv`, contentType: 'text/csv; charset=utf-8', body: out.join('\r\n') + '\r\n' };
+  });
+  return { filename: `${base}.csv`, contentType: 'text/csv; charset=utf-8', body: writeCsv(CSV_COLUMNS, csvRows) };
 }
 
 export async function exportReservationSet({

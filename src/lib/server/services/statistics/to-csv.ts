@@ -1,18 +1,9 @@
 import { FIGURES } from './compute-report';
 import type { StatisticsReport } from './get';
 import type { StatisticsTable } from './schemas';
+import { writeCsv as csv } from '../../../../core/csv/write-csv';
 
-/** Pure: one table of a statistics report as CSV (RFC 4180 quoting, SI units named in headers). */
-
-function cell(v: unknown): string {
-  if (v === null || v === undefined) return '';
-  const s = typeof v === 'number' ? (Number.isFinite(v) ? String(v) : '') : String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-function csv(header: string[], rows: unknown[][]): string {
-  return [header, ...rows].map((r) => r.map(cell).join(',')).join('\r\n') + '\r\n';
-}
+/** Pure: one table of a statistics report as CSV (the shared writer; SI units named in headers). */
 
 export function statisticsTableCsv(report: StatisticsReport, table: StatisticsTable): string {
   const g = report.groups;
