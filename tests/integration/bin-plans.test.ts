@@ -126,6 +126,9 @@ describe('editing a plan', () => {
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.error.fields.map((f: { field: string }) => f.field).join(' ')).toContain('definition.axes.0.edges.edges.2');
+    // In words for people (issue 13, item 12); edges counted from 1 as the form shows them.
+    expect(body.error.message).toContain('axis 1, edges, edge 3: edges must be strictly increasing, but edge 3');
+    expect(body.error.message).not.toMatch(/axes\.0/);
   });
 
   it('lists versions and one plan with its bins', async () => {

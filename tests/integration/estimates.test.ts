@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { anonymous, signIn, type Session } from '../helpers/http';
+import { fieldPathWords } from '../../src/core/field-path-words';
 
 /**
  * Stage estimates through HTTP. Stored parts are inserted directly (a device type, lot, sweep
@@ -162,7 +163,9 @@ describe('POST /api/estimates/mixer', () => {
     expect(status, JSON.stringify(body)).toBe(400);
     expect(body.error.code).toBe('invalid_input');
     expect(body.error.fields.map((f: { field: string }) => f.field)).toContain(field);
-    expect(body.error.message).toContain(field);
+    // The message names the field in words (issue 13, item 12); `fields` keeps the path for programs.
+    expect(body.error.message).toContain(fieldPathWords(field.split('.')));
+    expect(body.error.message).not.toContain(field.includes('.') ? field : `${field}:`);
   });
 
   it('answers 404 for an unknown serial and 409 for a part without a fit, naming the serial', async () => {

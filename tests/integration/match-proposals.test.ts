@@ -173,7 +173,7 @@ describe('match proposals on demo-like stock', () => {
       const res = await designer.fetch('/api/match/proposals', { method: 'POST', json: body });
       return { status: res.status, message: (await res.json()).error.message as string };
     };
-    expect(await bad({ device_type: 'WS-N30', shape: 'pair', count: 5, vds_v: 10 })).toMatchObject({ status: 400, message: expect.stringMatching(/id_a/) });
+    expect(await bad({ device_type: 'WS-N30', shape: 'pair', count: 5, vds_v: 10 })).toMatchObject({ status: 400, message: expect.stringMatching(/^The request is not valid — ID: /) });
     expect(await bad({ device_type: 'WS-N30', shape: 'cascode_pair', count: 1, operating_point: 'idss', vds_v: 10 })).toMatchObject({
       status: 400,
       message: expect.stringMatching(/cascode shares one drain current/),

@@ -30,7 +30,7 @@ describe('binEdges', () => {
     const axis = { quantity: 'vp' as const, edges: { kind: 'explicit' as const, edges: [-2.4, -2.0, -2.0, -1.8] } };
     expect(() => binEdges(axis)).toThrow(BinPlanError);
     expect(() => binEdges(axis)).toThrowErrorMatchingInlineSnapshot(
-      `[BinPlanError: The bin plan is not valid: edges.edges.2: edges must be strictly increasing, but edge 2 (-2) is not above edge 1 (-2). Correct the plan and save it again.]`,
+      `[BinPlanError: The bin plan is not valid: edges, edge 3: edges must be strictly increasing, but edge 3 (-2) is not above edge 2 (-2). Correct the plan and save it again.]`,
     );
   });
 
@@ -42,7 +42,7 @@ describe('binEdges', () => {
           { quantity: 'vgs_at_current', edges: { kind: 'uniform', startValue: -2, width: 0.1, count: 5 }, referenceCurrentA: 1e-3 },
         ],
       }),
-    ).toThrowError(/axes\.0\.referenceCurrentA.*axes\.1\.quantity/s);
+    ).toThrowError(/axis 1, reference current: .*axis 2, quantity: /s);
   });
 });
 

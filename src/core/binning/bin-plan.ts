@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { describeIssue } from '../field-path-words';
 
 /**
  * A bin plan for one device type: one or two axes over data-sheet figures, each cut into
@@ -73,9 +74,7 @@ export class BinPlanError extends Error {
   readonly code = 'bin_plan_invalid';
   constructor(readonly issues: BinPlanIssue[]) {
     super(
-      `The bin plan is not valid: ${issues
-        .map((i) => `${i.path.join('.')}: ${i.message}`)
-        .join('; ')}. Correct the plan and save it again.`,
+      `The bin plan is not valid: ${issues.map((i) => describeIssue(i.path, i.message)).join('; ')}. Correct the plan and save it again.`,
     );
     this.name = 'BinPlanError';
   }
@@ -108,11 +107,11 @@ export function binAxisIssues(axis: BinAxis, path: (string | number)[] = []): Bi
     }
     e.edges.forEach((v, k) => {
       if (!Number.isFinite(v)) {
-        issues.push({ path: [...path, 'edges', 'edges', k], message: `edge ${k} is not a finite number` });
+        issues.push({ path: [...path, 'edges', 'edges', k], message: `edge ${k + 1} is not a finite number` });
       } else if (k > 0 && !(v > e.edges[k - 1])) {
         issues.push({
           path: [...path, 'edges', 'edges', k],
-          message: `edges must be strictly increasing, but edge ${k} (${v}) is not above edge ${k - 1} (${e.edges[k - 1]})`,
+          message: `edges must be strictly increasing, but edge ${k + 1} (${v}) is not above edge ${k} (${e.edges[k - 1]})`,
         });
       }
     });

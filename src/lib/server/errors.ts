@@ -1,3 +1,5 @@
+import { describeIssue, fieldPathWords } from '../../core/field-path-words';
+
 /**
  * The one error type services throw. Each code is permanent; the HTTP layer maps it to a
  * status with `toResponse`. Messages say what happened, why, and what to do next.
@@ -39,10 +41,13 @@ export class AppError extends Error {
   }
 }
 
-/** Turns a zod error into an invalid_input AppError that names each field. */
+/**
+ * Turns a zod error into an invalid_input AppError. The message names each field in words
+ * ("axis 1, edges: width must be greater than 0"); `fields` keeps the paths for programs.
+ */
 export function fromZodError(error: { issues: { path: PropertyKey[]; message: string }[] }): AppError {
-  const fields = error.issues.map((i) => ({ field: i.path.map(String).join('.') || '(body)', message: i.message }));
-  const text = fields.map((f) => `${f.field}: ${f.message}`).join('; ');
+  const fields = error.issues.map((i) => ({ field: i.path.map(String).join('.') || '(body)', label: fieldPathWords(i.path) || 'the request', message: i.message }));
+  const text = error.issues.map((i) => describeIssue(i.path, i.message)).join('; ');
   return new AppError('invalid_input', `The request is not valid — ${text}.`, { fields });
 }
 
