@@ -131,6 +131,7 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/(admin\/stations|api\/admin\/stations)/, need: 'stations:manage' },
   { pattern: /^\/(admin\/device-types|api\/admin\/device-types)/, need: 'deviceTypes:manage' },
   { pattern: /^\/admin\/bin-plans/, need: 'binPlans:manage' },
+  { pattern: /^\/(admin\/audit|api\/admin\/audit)/, need: 'audit:read' },
   { pattern: /^\/api\/bin-plans/, methods: ['POST', 'PUT', 'PATCH', 'DELETE'], need: 'binPlans:manage' },
   { pattern: /^\/api\/bin-plans/, need: 'binPlans:read' },
   { pattern: /^\/(dev\/mail|api\/dev\/mail)/, need: 'devMail:read' },
@@ -191,5 +192,6 @@ export const NAVIGATION: readonly { href: string; label: string; need: RouteRule
   { href: '/admin/stations', label: 'Stations', need: 'stations:manage' },
   { href: '/admin/device-types', label: 'Device types', need: 'deviceTypes:manage' },
   { href: '/admin/bin-plans', label: 'Bin plans', need: 'binPlans:manage' },
+  { href: '/admin/audit', label: 'Audit log', need: 'audit:read' },
   { href: '/dev/mail', label: 'Caught mail', need: 'devMail:read' },
 ];

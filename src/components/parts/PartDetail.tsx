@@ -2,6 +2,7 @@ import { useMemo, useState } from 'react';
 import CurveFamilyChart from '../charts/CurveFamilyChart';
 import ResidualsChart from '../charts/ResidualsChart';
 import { pointKey } from '../charts/chart-data';
+import AuditTrail from '../audit/AuditTrail';
 import ReviewActions from '../review/ReviewActions';
 import { useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
@@ -280,30 +281,7 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
       {part.audit && (
         <section className="card" aria-labelledby="audit-heading">
           <h2 id="audit-heading" className="mb-2 text-lg">Audit trail</h2>
-          <table className="table-plain">
-            <thead>
-              <tr>
-                <th>When</th>
-                <th>Who</th>
-                <th>What</th>
-                <th>Change</th>
-              </tr>
-            </thead>
-            <tbody>
-              {part.audit.map((a, i) => (
-                <tr key={i}>
-                  <td className="whitespace-nowrap">{when(a.at)}</td>
-                  <td>{a.actor}</td>
-                  <td className="font-mono text-xs">{a.action}</td>
-                  <td className="text-xs text-ink-soft">
-                    {a.before ? <span>{JSON.stringify(a.before)} → </span> : null}
-                    {a.after ? JSON.stringify(a.after) : ''}
-                    {a.reason ? <div className="italic">{a.reason}</div> : null}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <AuditTrail entries={part.audit} />
         </section>
       )}
     </div>

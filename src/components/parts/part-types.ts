@@ -1,4 +1,5 @@
 import { PART_STATUSES, describePartStatus } from '../../core/stock/part-transitions';
+import type { AuditEntryJson } from '../../lib/server/services/audit/describe-rows';
 import type { ApiCurve } from '../charts/chart-data';
 
 export interface FlagDetail {
@@ -60,7 +61,7 @@ export interface PartJson {
     is_current: boolean;
     fits: { fit_id: number; fitted_at: string; idss_a: number; vp_v: number; rms_rel: number | null; flags: string[]; review: string; is_current: boolean }[];
   }[];
-  audit: { at: string; action: string; actor: string; before: unknown; after: unknown; reason: string | null }[] | null;
+  audit: AuditEntryJson[] | null;
 }
 
 /** Short plain names for the fitter's flag codes; the full sentence comes with each flag. */

@@ -1,9 +1,10 @@
-import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq } from 'drizzle-orm';
 import type { FitResult } from '../../../../core/fit/definitions';
 import { formatModelCard } from '../../../../core/fit/model-card';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
+import { describeAuditRows, type AuditEntryJson } from '../audit/describe-rows';
 import type { StoredCurve } from '../sweeps/stored-curves';
 
 /** NaN (a standard error that could not be estimated) is sent as null. */
@@ -103,28 +104,14 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
   const current = fits.find((f) => f.id === part.currentFitId) ?? null;
   const currentSweep = current ? sweeps.find((s) => s.sweep.id === current.sweepId)?.sweep : sweeps[0]?.sweep;
 
-  let audit: { at: string; action: string; actor: string; before: unknown; after: unknown; reason: string | null }[] | null = null;
+  let audit: AuditEntryJson[] | null = null;
   if (actor.permissions.includes('audit:read')) {
     const entries = await db
       .select()
       .from(schema.auditLog)
       .where(and(eq(schema.auditLog.subjectType, 'part'), eq(schema.auditLog.subjectId, part.serial)))
       .orderBy(asc(schema.auditLog.at), asc(schema.auditLog.id));
-    const userIds = [...new Set(entries.map((e) => e.actorUserId).filter((x): x is string => !!x))];
-    const stationIds = [...new Set(entries.map((e) => e.actorStationId).filter((x): x is string => !!x))];
-    const users = userIds.length ? await db.select({ id: schema.user.id, email: schema.user.email }).from(schema.user).where(inArray(schema.user.id, userIds)) : [];
-    const stations = stationIds.length
-      ? await db.select({ id: schema.stationToken.id, name: schema.stationToken.name }).from(schema.stationToken).where(inArray(schema.stationToken.id, stationIds))
-      : [];
-    const who = new Map<string, string>([...users.map((u) => [u.id, u.email] as const), ...stations.map((s) => [s.id, `station ${s.name}`] as const)]);
-    audit = entries.map((e) => ({
-      at: e.at.toISOString(),
-      action: e.action,
-      actor: (e.actorUserId && who.get(e.actorUserId)) || (e.actorStationId && who.get(e.actorStationId)) || 'system',
-      before: e.before,
-      after: e.after,
-      reason: e.reason,
-    }));
+    audit = await describeAuditRows(db, entries);
   }
 
   const fitsBySweep = new Map<number, FitRow[]>();

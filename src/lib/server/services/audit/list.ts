@@ -1,0 +1,75 @@
+import { and, count, desc, eq, gte, ilike, inArray, lt, or, type SQL } from 'drizzle-orm';
+import { z } from 'zod';
+import { AUDIT_ACTION_WORDS } from '../../../../core/audit/describe-audit-entry';
+import { getDb, schema } from '../../../../db/client';
+import { requirePermission, type Actor } from '../../identity';
+import { describeAuditRows, type AuditEntryJson } from './describe-rows';
+
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const day = z.preprocess(blankToUndefined, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional());
+
+export const ListAuditInput = z.object({
+  /** Part of a serial (or of any subject id), case-insensitive. */
+  serial: z.preprocess(blankToUndefined, z.string().trim().max(80).optional()),
+  /** Part of a person's e-mail or name, or of a station's name, case-insensitive. */
+  person: z.preprocess(blankToUndefined, z.string().trim().max(120).optional()),
+  /** An action ("stock.move") or its first part ("stock"). */
+  action: z.preprocess(blankToUndefined, z.string().trim().max(60).regex(/^[a-z_.]+$/, 'must be an action name such as stock.move').optional()),
+  /** First and last day, inclusive, in UTC. */
+  from: day,
+  to: day,
+  page: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(1)),
+  page_size: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(200).default(50)),
+});
+export type ListAuditInput = z.infer<typeof ListAuditInput>;
+
+export interface AuditLogPage {
+  entries: AuditEntryJson[];
+  total: number;
+  page: number;
+  page_size: number;
+  /** Every action the services write, for the filter's pick list. */
+  actions: string[];
+}
+
+const ACTIONS = Object.keys(AUDIT_ACTION_WORDS).sort();
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+/** The whole audit log, newest first, filtered and paged on the server. */
+export async function listAuditLog({ actor, input }: { actor: Actor | null; input: unknown }): Promise<AuditLogPage> {
+  requirePermission(actor, 'audit:read');
+  const f = ListAuditInput.parse(input);
+  const db = getDb();
+  const where: SQL[] = [];
+  if (f.serial) where.push(ilike(schema.auditLog.subjectId, `%${escapeLike(f.serial)}%`));
+  if (f.action) where.push(f.action.includes('.') ? eq(schema.auditLog.action, f.action) : ilike(schema.auditLog.action, `${escapeLike(f.action)}.%`));
+  if (f.from) where.push(gte(schema.auditLog.at, new Date(`${f.from}T00:00:00Z`)));
+  if (f.to) where.push(lt(schema.auditLog.at, new Date(Date.parse(`${f.to}T00:00:00Z`) + 86_400_000)));
+  if (f.person) {
+    const like = `%${escapeLike(f.person)}%`;
+    const [users, stations] = await Promise.all([
+      db.select({ id: schema.user.id }).from(schema.user).where(or(ilike(schema.user.email, like), ilike(schema.user.name, like))),
+      db.select({ id: schema.stationToken.id }).from(schema.stationToken).where(ilike(schema.stationToken.name, like)),
+    ]);
+    const matches: SQL[] = [];
+    if (users.length) matches.push(inArray(schema.auditLog.actorUserId, users.map((u) => u.id)));
+    if (stations.length) matches.push(inArray(schema.auditLog.actorStationId, stations.map((s) => s.id)));
+    if (matches.length === 0) {
+      return { entries: [], total: 0, page: f.page, page_size: f.page_size, actions: ACTIONS };
+    }
+    where.push(matches.length === 1 ? matches[0] : or(...matches)!);
+  }
+  const cond = where.length ? and(...where) : undefined;
+  const [[{ total }], rows] = await Promise.all([
+    db.select({ total: count() }).from(schema.auditLog).where(cond),
+    db
+      .select()
+      .from(schema.auditLog)
+      .where(cond)
+      .orderBy(desc(schema.auditLog.at), desc(schema.auditLog.id))
+      .limit(f.page_size)
+      .offset((f.page - 1) * f.page_size),
+  ]);
+  return { entries: await describeAuditRows(db, rows), total, page: f.page, page_size: f.page_size, actions: ACTIONS };
+}
