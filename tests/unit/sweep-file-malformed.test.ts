@@ -1,12 +1,15 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { parseSweepFile, SweepFileError } from '../../src/core/sweep-file';
+import { decodeSweepBytes, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError } from '../../src/core/sweep-file';
 
 /**
- * The refusal corpus: tests/fixtures/malformed/*.csv against the table in expected.json.
- * Source of the codes: the issue's list of refusals. Each file was built with one defect at
- * a known row; its message was read against the file before it went into the table.
+ * The refusal corpus: every file in tests/fixtures/malformed/ against the table in
+ * expected.json, read as the intake reads it (bytes → decodeSweepBytes → parseSweepFile).
+ * Source of the codes: the issue's list of refusals and of hostile files (binary, compressed,
+ * UTF-16, NUL, implausible values, bad serials; make-hostile.mjs writes those). Each file was
+ * built with one defect at a known row; its message was read against the file before it went
+ * into the table.
  */
 const folder = fileURLToPath(new URL('../fixtures/malformed/', import.meta.url));
 const expected = JSON.parse(readFileSync(folder + 'expected.json', 'utf8')) as Record<
@@ -17,7 +20,7 @@ const expected = JSON.parse(readFileSync(folder + 'expected.json', 'utf8')) as R
 function refusal(fileName: string, byteLength?: number): SweepFileError {
   const bytes = readFileSync(folder + fileName);
   try {
-    parseSweepFile({ text: bytes.toString('utf8'), fileName, byteLength: byteLength ?? bytes.length });
+    parseSweepFile({ text: decodeSweepBytes(bytes, fileName), fileName, byteLength: byteLength ?? bytes.length });
   } catch (error) {
     if (error instanceof SweepFileError) return error;
     throw error;
@@ -27,8 +30,10 @@ function refusal(fileName: string, byteLength?: number): SweepFileError {
 
 describe('malformed sweep files', () => {
   it('has a table entry for every file and a file for every entry', () => {
-    const files = readdirSync(folder).filter((f) => f.endsWith('.csv')).sort();
+    const files = readdirSync(folder).filter((f) => !/\.(json|md|mjs)$/.test(f)).sort();
     expect(Object.keys(expected).sort()).toEqual(files);
+    // The issue asks for at least 60 hostile and messy files.
+    expect(files.length).toBeGreaterThanOrEqual(60);
   });
 
   it('covers every error code the issue names', () => {
@@ -37,6 +42,7 @@ describe('malformed sweep files', () => {
     for (const code of [
       'empty_file', 'no_header', 'missing_column', 'non_numeric', 'not_finite', 'too_few_points',
       'too_few_curves', 'mixed_signs', 'duplicate_point', 'too_large', 'ragged_row', 'unknown_unit',
+      'not_text', 'implausible_value', 'bad_serial', 'bad_metadata', 'bad_header',
     ]) {
       expect(codes).toContain(code);
     }
@@ -54,7 +60,11 @@ describe('malformed sweep files', () => {
       expect(error.file).toBe(fileName);
       expect(error.message.startsWith(fileName)).toBe(true);
       expect(error.message).toContain('Expected ');
-      if (want.line !== null) {
+      // Never a control or invisible formatting character raw, and never longer than the cap.
+      // eslint-disable-next-line no-control-regex
+      expect(error.message).not.toMatch(/[\u0000-\u001f\u007f-\u009f\u200b-\u200f\u2028-\u202e\u2060-\u2069]/);
+      expect(error.message.length).toBeLessThanOrEqual(MAX_MESSAGE_LENGTH);
+      if (want.line !== null && want.code !== 'not_text') {
         const lines = readFileSync(folder + fileName, 'utf8').split(/\r\n|\r|\n/);
         expect(lines[want.line - 1]?.trim()).not.toBe('');
       }

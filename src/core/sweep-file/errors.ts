@@ -1,3 +1,5 @@
+import { capLength, escapeForMessage, MAX_MESSAGE_LENGTH } from './quote-for-message';
+
 /**
  * The one error the sweep-file parser throws. `code` is permanent (the API and the UI map
  * on it); `message` is the sentence shown to the person who uploaded the file: what was
@@ -5,7 +7,8 @@
  */
 
 /**
- * - `too_large`: the file or its point count is over the limit.
+ * - `not_text`: binary, compressed or UTF-16/32 data, or a NUL or other control byte.
+ * - `too_large`: the file, its point count or its header is over the limit.
  * - `empty_file`: nothing but whitespace.
  * - `no_header`: no line names any known column (only comments, or data without a header).
  * - `missing_column`: VGS, VDS or ID (or any source of a serial) is missing.
@@ -23,8 +26,12 @@
  * - `duplicate_point`: the same (VGS, VDS) twice for one part.
  * - `too_few_points`: a curve with fewer points than the minimum, or no data rows at all.
  * - `too_few_curves`: a part with fewer gate steps than the minimum.
+ * - `implausible_value`: a value no JFET curve tracer produces (|ID| > 10 A, a unit or
+ *   scaling mistake, 1e-300), or a part that never conducts.
+ * - `bad_serial`: a serial with characters outside the allowed set, or too long.
  */
 export type SweepFileErrorCode =
+  | 'not_text'
   | 'too_large'
   | 'empty_file'
   | 'no_header'
@@ -40,7 +47,9 @@ export type SweepFileErrorCode =
   | 'mixed_signs'
   | 'duplicate_point'
   | 'too_few_points'
-  | 'too_few_curves';
+  | 'too_few_curves'
+  | 'implausible_value'
+  | 'bad_serial';
 
 /** Where a problem is. `line` and `column` are 1-based; `field` names the column. */
 export interface SweepFileLocation {
@@ -71,7 +80,9 @@ export class SweepFileError extends Error {
     problem: string,
     expected: string,
   ) {
-    super(`${describeLocation(location)}: ${problem}. Expected ${expected}.`);
+    // File names, header labels and values come from the upload: escaped and capped here, so
+    // no message carries a control character raw or grows with the file.
+    super(capLength(escapeForMessage(`${describeLocation(location)}: ${problem}. Expected ${expected}.`), MAX_MESSAGE_LENGTH));
     this.code = code;
     this.file = location.file;
     this.line = location.line;
@@ -85,10 +96,10 @@ export class SweepFileError extends Error {
 
 /** "lot7.csv, line 12, column 3 (ID)" */
 export function describeLocation(location: SweepFileLocation): string {
-  let text = location.file;
+  let text = capLength(location.file, 160);
   if (location.line !== undefined) text += `, line ${location.line}`;
   if (location.column !== undefined) text += `, column ${location.column}`;
-  if (location.field !== undefined) text += ` (${location.field})`;
+  if (location.field !== undefined) text += ` (${capLength(location.field, 60)})`;
   return text;
 }
 

@@ -1,12 +1,20 @@
 import type { Channel } from '../jfet-model';
+import { normalizeSerial, serialProblem, SERIAL_RULE } from '../serial/normalize-serial';
 import { SweepFileError } from './errors';
-import { MAX_SWEEP_FILE_BYTES, MAX_SWEEP_POINTS_PER_FILE } from './limits';
+import {
+  MAX_ABS_ID_A,
+  MAX_ABS_VDS_V,
+  MAX_ABS_VGS_V,
+  MAX_SWEEP_FILE_BYTES,
+  MAX_SWEEP_POINTS_PER_FILE,
+} from './limits';
+import { quoteForMessage } from './quote-for-message';
 import { normalizeSweep, type DeclaredChannel, type RawSweepPoints } from './normalize-sweep';
 import { readNumberCell, type NumberCellProblem } from './read-number-cell';
 import { readSweepHeader, type NumericColumn, type SweepHeaderLayout } from './read-sweep-header';
 import { interpretSweepMetadata, readMetadataComment, type MetadataEntry } from './read-sweep-metadata';
 import { detectDelimiter, splitDelimitedLine } from './split-delimited-line';
-import type { ParsedSweepFile, ParsedSweepPart, ParseSweepFileInput, SerialSource } from './types';
+import type { ParsedSweepFile, ParsedSweepPart, ParseSweepFileInput, SerialSource, SweepKind } from './types';
 
 const MIB = 1024 * 1024;
 
@@ -27,6 +35,15 @@ export function parseSweepFile(input: ParseSweepFileInput): ParsedSweepFile {
     );
   }
   const text = input.text.charCodeAt(0) === 0xfeff ? input.text.slice(1) : input.text;
+  const nul = text.indexOf('\u0000');
+  if (nul >= 0) {
+    throw new SweepFileError(
+      'not_text',
+      { file, line: text.slice(0, nul).split(/\r\n|\r|\n/).length },
+      'this looks like binary data, not text: it contains a NUL character',
+      'a plain-text CSV or TSV file in UTF-8',
+    );
+  }
   if (text.trim() === '') {
     throw new SweepFileError('empty_file', { file }, 'the file is empty', 'a header row and rows of VGS, VDS and ID values (see the sweep file formats)');
   }
@@ -64,9 +81,17 @@ export function parseSweepFile(input: ParseSweepFileInput): ParsedSweepFile {
     decimalComma,
   });
 
+  if (layout.format !== 'long') {
+    for (const step of layout.steps) {
+      checkPlausible(step.vgsV, layout.format === 'wide' ? 'VGS' : 'VDS', String(step.vgsV), { ...step, powerOfTen: 0 }, headerLineNumber, file);
+    }
+  }
+
   const raw: RawSweepPoints = { partIndex: [], vgsV: [], vdsV: [], idA: [], line: [], column: [] };
   const serials: string[] = [];
+  // By the cell as written, then by the normalized serial ("jx-1" and "JX-1" are one part).
   const partBySerial = new Map<string, number>();
+  const partByNormalSerial = new Map<string, number>();
   let dataRows = 0;
   for (let i = headerLineIndex + 1; i < lines.length; i++) {
     const line = lines[i];
@@ -91,20 +116,22 @@ export function parseSweepFile(input: ParseSweepFileInput): ParsedSweepFile {
     dataRows++;
     let partIndex = 0;
     if (layout.serialIndex !== undefined) {
-      const serial = cells[layout.serialIndex].trim();
-      if (serial === '') {
-        throw new SweepFileError(
-          'empty_cell',
-          { file, line: lineNumber, column: layout.serialIndex + 1, field: 'serial' },
-          'the serial is empty',
-          'the serial of the part measured on this row',
-        );
-      }
-      let known = partBySerial.get(serial);
+      const cell = cells[layout.serialIndex];
+      let known = partBySerial.get(cell);
       if (known === undefined) {
-        known = serials.length;
-        serials.push(serial);
-        partBySerial.set(serial, known);
+        const where = { file, line: lineNumber, column: layout.serialIndex + 1, field: 'serial' };
+        const serial = normalizeSerial(cell);
+        if (serial === '') {
+          throw new SweepFileError('empty_cell', where, 'the serial is empty', 'the serial of the part measured on this row');
+        }
+        checkSerial(serial, cell, where);
+        known = partByNormalSerial.get(serial);
+        if (known === undefined) {
+          known = serials.length;
+          serials.push(serial);
+          partByNormalSerial.set(serial, known);
+        }
+        partBySerial.set(cell, known);
       }
       partIndex = known;
     }
@@ -132,7 +159,8 @@ export function parseSweepFile(input: ParseSweepFileInput): ParsedSweepFile {
   if (layout.serialIndex === undefined) {
     const fromName = serialFromFileName(input.fileName);
     serialSource = fileMetadata.serial ? 'comment' : 'file-name';
-    const serial = fileMetadata.serial?.value ?? fromName;
+    const written = fileMetadata.serial?.value ?? fromName;
+    const serial = normalizeSerial(written);
     if (serial === '') {
       throw new SweepFileError(
         'missing_column',
@@ -141,17 +169,27 @@ export function parseSweepFile(input: ParseSweepFileInput): ParsedSweepFile {
         'a "serial" column, a "# serial: <serial>" line, or a file named after the part',
       );
     }
+    checkSerial(
+      serial,
+      written,
+      fileMetadata.serial ? { file, line: fileMetadata.serial.line, field: 'serial' } : { file, field: 'serial (from the file name)' },
+    );
     serials.push(serial);
   }
 
   const declared = declaredChannel(input.channel, fileMetadata.channel, file);
-  const normalized = normalizeSweep(raw, serials, declared, file);
+  const kind: SweepKind | undefined = layout.format === 'wide-transfer' ? 'transfer' : layout.format === 'wide' ? 'output' : fileMetadata.sweepKind;
+  const normalized = normalizeSweep(raw, serials, declared, file, kind);
   const parts: ParsedSweepPart[] = serials.map((serial, p) => {
+    const n = normalized.parts[p];
     const part: ParsedSweepPart = {
       serial,
       serialSource,
       metadata: { ...fileMetadata.metadata, extra: { ...fileMetadata.metadata.extra } },
-      curves: normalized.curvesByPart[p],
+      kind: n.kind,
+      curves: n.curves,
+      transferCurves: n.transferCurves,
+      notes: n.notes,
     };
     if (normalized.channel) part.channel = normalized.channel;
     return part;
@@ -200,10 +238,25 @@ function addRowPoints(
   decimalComma: boolean,
   file: string,
 ): void {
+  if (layout.format === 'wide-transfer') {
+    const vgsV = readRequired(cells, layout.vgs, 'VGS', lineNumber, decimalComma, file);
+    checkPlausible(vgsV, 'VGS', cells[layout.vgs.index], layout.vgs, lineNumber, file);
+    for (const step of layout.steps) {
+      const value = readNumberCell(cells[step.index], decimalComma, step.powerOfTen);
+      if (value === 'empty') continue;
+      if (typeof value !== 'number') throw cellError(value, cells[step.index], step, 'ID', lineNumber, file);
+      checkPlausible(value, 'ID', cells[step.index], step, lineNumber, file);
+      pushPoint(raw, partIndex, vgsV, step.vgsV, value, lineNumber, step.index + 1);
+    }
+    return;
+  }
   const vdsV = readRequired(cells, layout.vds, 'VDS', lineNumber, decimalComma, file);
+  checkPlausible(vdsV, 'VDS', cells[layout.vds.index], layout.vds, lineNumber, file);
   if (layout.format === 'long') {
     const vgsV = readRequired(cells, layout.vgs, 'VGS', lineNumber, decimalComma, file);
     const idA = readRequired(cells, layout.id, 'ID', lineNumber, decimalComma, file);
+    checkPlausible(vgsV, 'VGS', cells[layout.vgs.index], layout.vgs, lineNumber, file);
+    checkPlausible(idA, 'ID', cells[layout.id.index], layout.id, lineNumber, file);
     pushPoint(raw, partIndex, vgsV, vdsV, idA, lineNumber, 0);
     return;
   }
@@ -211,8 +264,39 @@ function addRowPoints(
     const value = readNumberCell(cells[step.index], decimalComma, step.powerOfTen);
     if (value === 'empty') continue;
     if (typeof value !== 'number') throw cellError(value, cells[step.index], step, 'ID', lineNumber, file);
+    checkPlausible(value, 'ID', cells[step.index], step, lineNumber, file);
     pushPoint(raw, partIndex, step.vgsV, vdsV, value, lineNumber, step.index + 1);
   }
+}
+
+const MAX_MAGNITUDE = { VGS: MAX_ABS_VGS_V, VDS: MAX_ABS_VDS_V, ID: MAX_ABS_ID_A } as const;
+const UNIT = { VGS: 'V', VDS: 'V', ID: 'A' } as const;
+
+/** Refuses a value no JFET curve tracer produces (limits.ts, FORMATS.md "Plausibility"). */
+function checkPlausible(
+  value: number,
+  quantity: 'VGS' | 'VDS' | 'ID',
+  cell: string,
+  column: NumericColumn,
+  line: number,
+  file: string,
+): void {
+  const max = MAX_MAGNITUDE[quantity];
+  if (Math.abs(value) <= max) return;
+  const location = { file, line, column: column.index + 1, field: column.label };
+  const written = `"${quoteForMessage(cell.trim())}"${column.powerOfTen !== 0 ? ` (${Number(value.toPrecision(6))} ${UNIT[quantity]})` : ''}`;
+  throw new SweepFileError(
+    'implausible_value',
+    location,
+    `${quantity} is ${written}, beyond the ${max} ${UNIT[quantity]} a JFET curve tracer can produce`,
+    `|${quantity}| of at most ${max} ${UNIT[quantity]}; check the unit in the header (${quantity === 'ID' ? 'A, mA, uA, nA' : 'V, mV'}) and any scaling of the file`,
+  );
+}
+
+function checkSerial(serial: string, written: string, where: { file: string; line?: number; column?: number; field: string }): void {
+  const problem = serialProblem(serial);
+  if (problem === null) return;
+  throw new SweepFileError('bad_serial', where, `the serial "${quoteForMessage(written.trim())}" ${problem}`, `a serial of ${SERIAL_RULE}`);
 }
 
 function pushPoint(
@@ -256,7 +340,7 @@ function cellError(
   const location = { file, line, column: column.index + 1, field: column.label };
   const number = 'a decimal number such as -0.5 or 1.2e-3';
   if (problem === 'empty') return new SweepFileError('empty_cell', location, `the ${quantity} cell is empty`, number);
-  const shown = cell.trim().length > 40 ? `${cell.trim().slice(0, 37)}...` : cell.trim();
+  const shown = quoteForMessage(cell.trim());
   if (problem === 'not_finite') {
     return new SweepFileError('not_finite', location, `${quantity} is "${shown}", which is not a finite number`, `${number}; leave out points that were not measured`);
   }

@@ -95,6 +95,9 @@ export function readNumberCell(
       text = cell.slice(start, separatorAt) + '.' + cell.slice(separatorAt + 1, mantissaEnd);
     }
     value = Number(`${text}e${exponent + powerOfTen}`);
+    // The number as written must be a double before its unit scales it: 1e309 in mA is an
+    // overflow, not 1e306 A.
+    if (Number.isFinite(value) && !Number.isFinite(Number(`${text}e${exponent}`))) return 'not_finite';
   }
   if (!Number.isFinite(value)) return 'not_finite';
   return value === 0 ? 0 : value;

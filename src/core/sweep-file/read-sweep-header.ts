@@ -1,4 +1,6 @@
 import { SweepFileError } from './errors';
+import { MAX_GATE_STEP_COLUMNS, MAX_HEADER_CELLS } from './limits';
+import { quoteForMessage } from './quote-for-message';
 import { readNumberCell } from './read-number-cell';
 
 /** A numeric column: its 0-based index, the header text, and its unit as a power of ten. */
@@ -9,8 +11,9 @@ export interface NumericColumn {
   powerOfTen: number;
 }
 
-/** A wide-format ID column: one gate step. */
+/** A wide-format ID column: one gate step (output family) or one drain voltage (transfer sweep). */
 export interface GateStepColumn extends NumericColumn {
+  /** The step's fixed voltage: VGS in an output family, VDS in a transfer sweep. */
   vgsV: number;
 }
 
@@ -29,6 +32,15 @@ export type SweepHeaderLayout =
       serialIndex?: number;
       vds: NumericColumn;
       steps: GateStepColumn[];
+    }
+  | {
+      /** Transfer sweep, one row per VGS: a VGS column and one ID column per fixed VDS. */
+      format: 'wide-transfer';
+      cellCount: number;
+      serialIndex?: number;
+      vgs: NumericColumn;
+      /** `vgsV` of each holds the column's VDS. */
+      steps: GateStepColumn[];
     };
 
 type Quantity = 'vgs' | 'vds' | 'id';
@@ -40,6 +52,7 @@ const CURRENT_UNITS = 'A, mA, uA (µA) or nA';
 const SERIAL_NAMES = new Set(['serial', 'serial number', 'serial_number', 'serial no', 'serial no.']);
 const NAME_END = new Set([' ', '_', '(', '[', '/']);
 export const WIDE_HEADER_EXAMPLE = 'id_mA@vgs=-0.5 or ID (mA) @ VGS=-0.5 V';
+export const TRANSFER_HEADER_EXAMPLE = 'id_mA@vds=10 or ID (mA) @ VDS=10 V';
 
 interface HeaderContext {
   file: string;
@@ -56,6 +69,9 @@ interface HeaderContext {
 export function readSweepHeader(cells: string[], context: HeaderContext): SweepHeaderLayout {
   const found: Partial<Record<Quantity, NumericColumn>> = {};
   const steps: GateStepColumn[] = [];
+  // Step value → column, so that finding a repeated step is one lookup (a header may be long).
+  const stepByValue = new Map<number, GateStepColumn>();
+  let stepQuantity: 'vgs' | 'vds' | undefined;
   let serialIndex: number | undefined;
   const at = (index: number, label: string) => ({
     file: context.file,
@@ -63,6 +79,14 @@ export function readSweepHeader(cells: string[], context: HeaderContext): SweepH
     column: index + 1,
     field: label,
   });
+  if (cells.length > MAX_HEADER_CELLS) {
+    throw new SweepFileError(
+      'too_large',
+      { file: context.file, line: context.line },
+      `the header has ${cells.length} columns, over the limit of ${MAX_HEADER_CELLS}`,
+      `at most ${MAX_HEADER_CELLS} columns, of which at most ${MAX_GATE_STEP_COLUMNS} per-step ID columns; split the sweeps into several files`,
+    );
+  }
 
   for (let index = 0; index < cells.length; index++) {
     const label = cells[index].trim();
@@ -86,17 +110,37 @@ export function readSweepHeader(cells: string[], context: HeaderContext): SweepH
       const name = readQuantityName(idPart.trim());
       if (name?.quantity !== 'id') continue;
       const powerOfTen = readUnit('id', name.unitText, at(index, label));
-      const vgsV = readGateStepLabel(label.slice(atSign + 1), at(index, label), context.decimalComma);
-      const twin = steps.find((s) => s.vgsV === vgsV);
+      const step = readStepLabel(label.slice(atSign + 1), at(index, label), context.decimalComma);
+      if (stepQuantity !== undefined && step.quantity !== stepQuantity) {
+        throw new SweepFileError(
+          'bad_header',
+          at(index, label),
+          `the header mixes ID columns per gate step ("@vgs=") with ID columns per drain voltage ("@vds=")`,
+          `either "${WIDE_HEADER_EXAMPLE}" columns (output family) or "${TRANSFER_HEADER_EXAMPLE}" columns (transfer sweep), not both in one file`,
+        );
+      }
+      stepQuantity = step.quantity;
+      const twin = stepByValue.get(step.valueV);
       if (twin) {
+        const what = step.quantity === 'vgs' ? 'gate step VGS' : 'drain voltage VDS';
         throw new SweepFileError(
           'duplicate_column',
           at(index, label),
-          `gate step VGS = ${vgsV} V appears twice (columns ${twin.index + 1} and ${index + 1})`,
-          'one ID column per gate step',
+          `${what} = ${step.valueV} V appears twice (columns ${twin.index + 1} and ${index + 1})`,
+          `one ID column per ${step.quantity === 'vgs' ? 'gate step' : 'drain voltage'}`,
         );
       }
-      steps.push({ index, label, powerOfTen, vgsV });
+      if (steps.length >= MAX_GATE_STEP_COLUMNS) {
+        throw new SweepFileError(
+          'too_large',
+          at(index, label),
+          `the header has more than ${MAX_GATE_STEP_COLUMNS} per-step ID columns`,
+          `at most ${MAX_GATE_STEP_COLUMNS} ${step.quantity === 'vgs' ? 'gate steps' : 'drain voltages'} per file (a tracer steps the gate 5 to 20 times); split the sweeps into several files`,
+        );
+      }
+      const column = { index, label, powerOfTen, vgsV: step.valueV };
+      stepByValue.set(step.valueV, column);
+      steps.push(column);
       continue;
     }
     const name = readQuantityName(label);
@@ -114,20 +158,40 @@ export function readSweepHeader(cells: string[], context: HeaderContext): SweepH
   }
 
   const where = { file: context.file, line: context.line };
-  const columnList = cells.map((c) => `"${c.trim()}"`).join(', ');
+  const columnList = () => truncate(cells.slice(0, 12).map((c) => `"${quoteForMessage(c.trim(), 30)}"`).join(', ') + (cells.length > 12 ? ', ...' : ''));
   if (!found.vgs && !found.vds && !found.id && steps.length === 0) {
     throw new SweepFileError(
       'no_header',
       where,
-      `the first line that is not a comment names none of the columns VGS, VDS or ID (found ${truncate(columnList)})`,
+      `the first line that is not a comment names none of the columns VGS, VDS or ID (found ${columnList()})`,
       `a header row such as "vgs (V),vds (V),id (mA)" before the data, or "vds (V),${WIDE_HEADER_EXAMPLE.split(' or ')[0]},..." for one column per gate step`,
     );
+  }
+  if (stepQuantity === 'vds') {
+    if (found.id || found.vds) {
+      const plain = (found.id ?? found.vds)!;
+      throw new SweepFileError(
+        'duplicate_column',
+        at(plain.index, plain.label),
+        `the header mixes a plain ${found.id ? 'ID' : 'VDS'} column with per-drain-voltage ID columns (column ${steps[0].index + 1})`,
+        `either VGS, VDS and ID columns (long format) or VGS and one "${TRANSFER_HEADER_EXAMPLE}" column per drain voltage (transfer sweep)`,
+      );
+    }
+    if (!found.vgs) {
+      throw new SweepFileError(
+        'missing_column',
+        { ...where, field: 'VGS' },
+        `the header has ID columns per drain voltage but no VGS column (found ${columnList()})`,
+        'a column named VGS, e.g. "vgs (V)", holding the gate voltage of each row',
+      );
+    }
+    return { format: 'wide-transfer', cellCount: cells.length, serialIndex, vgs: found.vgs, steps };
   }
   if (!found.vds) {
     throw new SweepFileError(
       'missing_column',
       { ...where, field: 'VDS' },
-      `the header has no VDS column (found ${truncate(columnList)})`,
+      `the header has no VDS column (found ${columnList()})`,
       'a column named VDS, e.g. "vds (V)"',
     );
   }
@@ -147,7 +211,7 @@ export function readSweepHeader(cells: string[], context: HeaderContext): SweepH
     throw new SweepFileError(
       'missing_column',
       { ...where, field: 'VGS' },
-      `the header has no VGS column (found ${truncate(columnList)})`,
+      `the header has no VGS column (found ${columnList()})`,
       `a column named VGS, e.g. "vgs (V)", or one ID column per gate step such as "${WIDE_HEADER_EXAMPLE}"`,
     );
   }
@@ -155,7 +219,7 @@ export function readSweepHeader(cells: string[], context: HeaderContext): SweepH
     throw new SweepFileError(
       'missing_column',
       { ...where, field: 'ID' },
-      `the header has no ID column (found ${truncate(columnList)})`,
+      `the header has no ID column (found ${columnList()})`,
       'a column named ID, e.g. "id (mA)"',
     );
   }
@@ -189,40 +253,42 @@ function readUnit(
   throw new SweepFileError(
     'unknown_unit',
     location,
-    `unknown unit "${unitText.trim().replace(/^[_/]/, '').trim()}" for ${quantityLabel(quantity)}`,
+    `unknown unit "${quoteForMessage(unitText.trim().replace(/^[_/]/, '').trim())}" for ${quantityLabel(quantity)}`,
     `${quantity === 'id' ? CURRENT_UNITS : VOLTAGE_UNITS}, written as in "${quantity === 'id' ? 'id (mA)' : `${quantity} (V)`}", or no unit for ${quantity === 'id' ? 'A' : 'V'}`,
   );
 }
 
-/** Reads `VGS=<number>[V|mV]` (blanks allowed around `=`), returning VGS in volts. */
-function readGateStepLabel(
+/** Reads `VGS=<number>[V|mV]` or `VDS=<number>[V|mV]` (blanks allowed around `=`), in volts. */
+function readStepLabel(
   text: string,
   location: { file: string; line: number; column: number; field: string },
   decimalComma: boolean,
-): number {
-  const expected = `"<ID column>@vgs=<number>" with an optional V or mV after the number, e.g. ${WIDE_HEADER_EXAMPLE}`;
+): { quantity: 'vgs' | 'vds'; valueV: number } {
+  const expected = `"<ID column>@vgs=<number>" (output family) or "<ID column>@vds=<number>" (transfer sweep) with an optional V or mV after the number, e.g. ${WIDE_HEADER_EXAMPLE}`;
   const t = text.trim().toLowerCase();
   const equals = t.indexOf('=');
-  if (!t.startsWith('vgs') || equals < 0 || t.slice(3, equals).trim() !== '') {
-    throw new SweepFileError('bad_header', location, `the gate step after "@" is not "vgs=<value>"`, expected);
+  const quantity = t.startsWith('vgs') ? 'vgs' : t.startsWith('vds') ? 'vds' : undefined;
+  if (!quantity || equals < 0 || t.slice(3, equals).trim() !== '') {
+    throw new SweepFileError('bad_header', location, `the step after "@" is not "vgs=<value>" or "vds=<value>"`, expected);
   }
   const valueAndUnit = t.slice(equals + 1).trim();
   let unitStart = valueAndUnit.length;
   while (unitStart > 0 && isUnitLetter(valueAndUnit[unitStart - 1])) unitStart--;
   const unit = valueAndUnit.slice(unitStart);
+  const name = quantity === 'vgs' ? 'the gate step VGS' : 'the drain voltage VDS';
   if (unit !== '' && unit !== 'v' && unit !== 'mv') {
-    throw new SweepFileError('unknown_unit', location, `unknown unit "${unit}" for the gate step VGS`, `V or mV after the number, e.g. ${WIDE_HEADER_EXAMPLE}`);
+    throw new SweepFileError('unknown_unit', location, `unknown unit "${quoteForMessage(unit)}" for ${name}`, `V or mV after the number, e.g. ${quantity === 'vgs' ? WIDE_HEADER_EXAMPLE : TRANSFER_HEADER_EXAMPLE}`);
   }
   const value = readNumberCell(valueAndUnit.slice(0, unitStart), decimalComma, unit === 'mv' ? -3 : 0);
   if (typeof value !== 'number') {
     throw new SweepFileError(
       'bad_header',
       location,
-      `the gate step value "${valueAndUnit.slice(0, unitStart).trim()}" is not a number`,
+      `the ${quantity === 'vgs' ? 'gate step' : 'drain voltage'} value "${quoteForMessage(valueAndUnit.slice(0, unitStart).trim())}" is not a number`,
       expected,
     );
   }
-  return value;
+  return { quantity, valueV: value };
 }
 
 function isUnitLetter(c: string): boolean {

@@ -1,7 +1,9 @@
 import type { Channel } from '../jfet-model';
 import { SweepFileError } from './errors';
+import { MAX_TEMPERATURE_C, MIN_TEMPERATURE_C } from './limits';
+import { quoteForMessage } from './quote-for-message';
 import { readNumberCell } from './read-number-cell';
-import type { SweepMetadata } from './types';
+import type { SweepKind, SweepMetadata } from './types';
 
 /** One `# key: value` line, key already normalized. */
 export interface MetadataEntry {
@@ -14,6 +16,8 @@ export interface FileMetadata {
   metadata: SweepMetadata;
   serial?: { value: string; line: number };
   channel?: { value: Channel; line: number };
+  /** `# sweep: output` or `# sweep: transfer`; otherwise the points decide. */
+  sweepKind?: SweepKind;
 }
 
 const KEY_ALIASES: Record<string, string> = {
@@ -27,6 +31,8 @@ const KEY_ALIASES: Record<string, string> = {
   'temperature_(°c)': 'temperature_c',
   serial_number: 'serial',
   serial_no: 'serial',
+  sweep_type: 'sweep',
+  measurement: 'sweep',
 };
 
 /**
@@ -73,8 +79,8 @@ export function interpretSweepMetadata(
       throw new SweepFileError(
         'bad_metadata',
         { file: context.file, line: entry.line, field: entry.key, relatedLines: [first.line] },
-        `"${entry.key}" is "${entry.value}" here but "${first.value}" on line ${first.line}`,
-        `each "# ${entry.key}:" line to give the same value`,
+        `"${quoteForMessage(entry.key)}" is "${quoteForMessage(entry.value)}" here but "${quoteForMessage(first.value)}" on line ${first.line}`,
+        `each "# ${quoteForMessage(entry.key)}:" line to give the same value`,
       );
     }
   }
@@ -88,6 +94,9 @@ export function interpretSweepMetadata(
         break;
       case 'channel':
         result.channel = { value: readChannel(entry, context.file), line: entry.line };
+        break;
+      case 'sweep':
+        result.sweepKind = readSweepKind(entry, context.file);
         break;
       case 'temperature_c':
         result.metadata.temperatureC = readTemperature(entry, context);
@@ -120,8 +129,20 @@ function readChannel(entry: MetadataEntry, file: string): Channel {
   throw new SweepFileError(
     'bad_metadata',
     { file, line: entry.line, field: 'channel' },
-    `unknown channel "${entry.value}"`,
+    `unknown channel "${quoteForMessage(entry.value)}"`,
     '"n" or "p" (also "n-channel", "p-channel", "NJF", "PJF")',
+  );
+}
+
+function readSweepKind(entry: MetadataEntry, file: string): SweepKind {
+  const value = entry.value.trim().toLowerCase();
+  if (value === 'output' || value === 'output family' || value === 'output characteristic') return 'output';
+  if (value === 'transfer' || value === 'transfer characteristic') return 'transfer';
+  throw new SweepFileError(
+    'bad_metadata',
+    { file, line: entry.line, field: 'sweep' },
+    `unknown sweep kind "${quoteForMessage(entry.value)}"`,
+    '"output" (ID against VDS at fixed gate steps) or "transfer" (ID against VGS at fixed VDS)',
   );
 }
 
@@ -131,11 +152,20 @@ function readTemperature(entry: MetadataEntry, context: { file: string; decimalC
   if (lower.endsWith('°c')) text = text.slice(0, -2);
   else if (lower.endsWith('c')) text = text.slice(0, -1);
   const value = readNumberCell(text, context.decimalComma);
-  if (typeof value === 'number' && value >= -273.15) return value;
+  if (typeof value === 'number' && value >= MIN_TEMPERATURE_C && value <= MAX_TEMPERATURE_C) return value;
+  const where = { file: context.file, line: entry.line, field: 'temperature_c' };
+  if (typeof value === 'number' || value === 'not_finite') {
+    throw new SweepFileError(
+      'bad_metadata',
+      where,
+      `the temperature "${quoteForMessage(entry.value)}" is outside ${MIN_TEMPERATURE_C} to ${MAX_TEMPERATURE_C} °C`,
+      `a measurement temperature between ${MIN_TEMPERATURE_C} and ${MAX_TEMPERATURE_C} °C, as for the upload's temperature field, e.g. "# temperature_c: 25"`,
+    );
+  }
   throw new SweepFileError(
     'bad_metadata',
-    { file: context.file, line: entry.line, field: 'temperature_c' },
-    `the temperature "${entry.value}" is not a temperature in °C`,
+    where,
+    `the temperature "${quoteForMessage(entry.value)}" is not a temperature in °C`,
     'a number of degrees Celsius, e.g. "# temperature_c: 25"',
   );
 }

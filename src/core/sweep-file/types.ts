@@ -12,7 +12,14 @@ export interface ParseSweepFileInput {
   channel?: Channel;
 }
 
-export type SweepFileFormat = 'long' | 'wide';
+/** `wide-transfer`: one row per VGS, one ID column per fixed VDS (a transfer sweep). */
+export type SweepFileFormat = 'long' | 'wide' | 'wide-transfer';
+
+/**
+ * What a part's points are: an output family (ID against VDS at a few gate steps) or a
+ * transfer sweep (ID against VGS at one or a few fixed VDS).
+ */
+export type SweepKind = 'output' | 'transfer';
 
 /**
  * How the file's numbers were signed:
@@ -52,13 +59,46 @@ export interface SweepCurve {
   points: { vdsV: number[]; idA: number[]; sourceLine: number[] };
 }
 
+/**
+ * One fixed VDS of a transfer sweep, N-equivalent signs, SI units: ID against VGS, sorted by
+ * VGS ascending; the arrays are parallel.
+ */
+export interface TransferCurve {
+  vdsV: number;
+  firstLine: number;
+  /** Wide transfer format only: the 1-based column holding this VDS's ID. */
+  sourceColumn?: number;
+  points: { vgsV: number[]; idA: number[]; sourceLine: number[] };
+}
+
+/**
+ * Something the parser did to a part that the uploader should know: a point left out of the
+ * fit, a curve kept although short, or one dropped. Shown with the upload and on the part page.
+ */
+export interface SweepNote {
+  code: 'gate_leakage' | 'short_curve' | 'short_curve_dropped';
+  /** VGS of the curve concerned (N-equivalent), when it is one curve. */
+  vgsV?: number;
+  /** Lines of the file the note is about. */
+  lines: number[];
+  message: string;
+}
+
 export interface ParsedSweepPart {
   serial: string;
   serialSource: SerialSource;
   channel?: Channel;
   metadata: SweepMetadata;
-  /** Sorted by VGS ascending (N-equivalent). */
+  kind: SweepKind;
+  /**
+   * Every point the fit takes, grouped by VGS and sorted by VGS ascending (N-equivalent):
+   * an output family's gate steps; for a transfer sweep, one curve per VGS holding one point
+   * per fixed VDS. `fitCurveFamily` takes these as they are.
+   */
   curves: SweepCurve[];
+  /** The same points of a transfer sweep grouped by VDS, sorted by VDS; empty for an output family. */
+  transferCurves: TransferCurve[];
+  notes: SweepNote[];
 }
 
 export interface ParsedSweepFile {

@@ -2,7 +2,8 @@ import { and, eq, inArray, isNull, notInArray, sql, type SQL } from 'drizzle-orm
 import type { FitResult, FittedResult } from '../../../../core/fit/definitions';
 import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
-import { parseSweepFile, SweepFileError, type ParsedSweepFile } from '../../../../core/sweep-file';
+import { capLength, decodeSweepBytes, escapeForMessage, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError, type ParsedSweepFile } from '../../../../core/sweep-file';
+import { storableErrorMessage, storableText } from '../../../../core/text/storable-text';
 import { getDb, schema } from '../../../../db/client';
 import { insertRowsAsJson, jsonRecordset } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
@@ -232,7 +233,8 @@ async function planFile(
   defaultStation: string | null,
   lotsByCode: (codes: string[]) => Promise<Map<string, LotRecord>>,
 ): Promise<FilePlan> {
-  const text = new TextDecoder('utf-8').decode(bytes);
+  // Binary, compressed, UTF-16 and NUL-bearing files are refused here, before any of their text is read.
+  const text = decodeSweepBytes(bytes, fileName);
   const hints = readFileHints(text);
   const types = await deviceTypesByName();
   const typeName = hints.deviceType ?? tags.device_type;
@@ -484,7 +486,7 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
 export async function refuseAfterRepeatedFailure(uploadFileIds: number[], error: unknown): Promise<IngestOutcome[]> {
   if (uploadFileIds.length === 0) return [];
   const rows = await uploadFilesWithUploader(inArray(schema.uploadFile.id, uploadFileIds), eq(schema.uploadFile.state, 'queued'));
-  const why = error instanceof Error ? error.message : String(error);
+  const why = storableErrorMessage(error, 1000);
   const out: IngestOutcome[] = [];
   for (const { file, upload, stationName } of rows) {
     const actor = uploaderOf(upload, stationName);
@@ -494,7 +496,9 @@ export async function refuseAfterRepeatedFailure(uploadFileIds: number[], error:
   return out;
 }
 
-async function markRejected(uploadFileId: number, reason: string, code: string, actor: Actor): Promise<IngestOutcome> {
+/** Marks a queued file rejected with its reason, made storable first (it may quote the file's bytes). */
+async function markRejected(uploadFileId: number, rawReason: string, code: string, actor: Actor): Promise<IngestOutcome> {
+  const reason = storableText(rawReason);
   return getDb().transaction(async (tx) => {
     const updated = await tx
       .update(schema.uploadFile)

@@ -1,10 +1,16 @@
-/** A reason to refuse a whole file that is not the parser's: unknown type or lot, a part that cannot take a sweep. */
+import { capLength, escapeForMessage, MAX_MESSAGE_LENGTH } from '../../../../core/sweep-file';
+
+/**
+ * A reason to refuse a whole file that is not the parser's: unknown type or lot, a part that
+ * cannot take a sweep. The message may quote the file (a lot code, a type name): it is
+ * escaped and capped like the parser's.
+ */
 export class IngestRejection extends Error {
   constructor(
     readonly code: 'unknown_device_type' | 'no_device_type' | 'unknown_lot' | 'channel_conflict' | 'not_fittable' | 'part_unavailable' | 'type_conflict' | 'stored_file_missing',
     message: string,
   ) {
-    super(message);
+    super(capLength(escapeForMessage(message), MAX_MESSAGE_LENGTH));
     this.name = 'IngestRejection';
   }
 }

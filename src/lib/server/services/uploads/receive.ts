@@ -1,5 +1,5 @@
 import { and, inArray, isNull, ne, sql } from 'drizzle-orm';
-import { MAX_SWEEP_FILE_BYTES } from '../../../../core/sweep-file';
+import { capLength, escapeForMessage, MAX_SWEEP_FILE_BYTES, nonTextError } from '../../../../core/sweep-file';
 import { getDb, schema, transactionWithClient, type DbOrTx } from '../../../../db/client';
 import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
@@ -28,7 +28,8 @@ const MIB = 1024 * 1024;
  * Takes one POST of sweep files: keeps every file under uploads/ by SHA-256, records the
  * upload and its files, and queues one fitting job per new file. Answers before any fitting.
  * A file whose bytes were already taken (and not rejected) points at the earlier file and
- * makes no second sweep; an over-size file is rejected at once, naming the limit.
+ * makes no second sweep; an over-size file, and one that is not text (binary, compressed,
+ * UTF-16, a NUL byte), is rejected at once with the reason. The raw bytes are kept either way.
  */
 export async function receiveSweepUpload({
   actor,
@@ -51,6 +52,11 @@ export async function receiveSweepUpload({
     throw new AppError('too_large', `The request has ${files.length} files; at most ${MAX_FILES_PER_UPLOAD} are taken at once. Send them in several requests.`, { limit_files: MAX_FILES_PER_UPLOAD });
   }
 
+  // Refused before any byte is kept: a name PostgreSQL cannot store would leave a raw file with no row.
+  const nulName = files.findIndex((f) => f.name.includes('\u0000'));
+  if (nulName >= 0) {
+    throw new AppError('invalid_input', `File ${nulName + 1} of the request has a name with a NUL character ("${files[nulName].name.replace(/\u0000/g, '\\0')}"), which Sluice cannot store. Rename the file and send it again; nothing of this request was kept.`);
+  }
   const stored = await Promise.all(files.map((f) => storeUploadBytes(f.bytes)));
   const db = getDb();
   const shas = [...new Set(stored.map((s) => s.sha256))];
@@ -78,11 +84,14 @@ export async function receiveSweepUpload({
     const values = files.map((f, i) => {
       const s = stored[i];
       const id = ids[i];
-      const name = f.name.trim() || `file-${i + 1}`;
-      const tooLarge = s.sizeBytes > MAX_SWEEP_FILE_BYTES;
-      const reason = tooLarge
-        ? `${name}: the file is ${s.sizeBytes} bytes, over the limit of ${MAX_SWEEP_FILE_BYTES} bytes (${MAX_SWEEP_FILE_BYTES / MIB} MiB). Expected a file of at most ${MAX_SWEEP_FILE_BYTES / MIB} MiB; split the sweeps into several files.`
-        : null;
+      const name = uploadFileName(f.name, i);
+      const notText = s.sizeBytes > MAX_SWEEP_FILE_BYTES ? null : (nonTextError(f.bytes, name)?.message ?? null);
+      const tooLarge = s.sizeBytes > MAX_SWEEP_FILE_BYTES || notText !== null;
+      const reason = notText
+        ? notText
+        : tooLarge
+          ? `${name}: the file is ${s.sizeBytes} bytes, over the limit of ${MAX_SWEEP_FILE_BYTES} bytes (${MAX_SWEEP_FILE_BYTES / MIB} MiB). Expected a file of at most ${MAX_SWEEP_FILE_BYTES / MIB} MiB; split the sweeps into several files.`
+          : null;
       const earlierCopy = tooLarge ? undefined : originalBySha.get(s.sha256);
       const duplicateOf = tooLarge ? null : (earlierCopy?.id ?? firstIdBySha.get(s.sha256) ?? null);
       if (!tooLarge && duplicateOf === null) firstIdBySha.set(s.sha256, id);
@@ -96,7 +105,7 @@ export async function receiveSweepUpload({
         storedPath: s.storedPath,
         state: tooLarge ? ('rejected' as const) : ('queued' as const),
         reason,
-        errorCode: tooLarge ? 'too_large' : null,
+        errorCode: notText ? 'not_text' : tooLarge ? 'too_large' : null,
         duplicateOfId: duplicateOf,
         finishedAt: tooLarge ? new Date() : null,
       };
@@ -118,6 +127,11 @@ export async function receiveSweepUpload({
     return { upload, rows };
   });
   return { upload_id: upload.id, files: rows };
+}
+
+/** The name as sent, made storable and readable: control characters escaped, at most 200 characters. */
+function uploadFileName(sent: string, index: number): string {
+  return capLength(escapeForMessage(sent.trim()), 200) || `file-${index + 1}`;
 }
 
 /** `count` new upload_file ids, in order, from the table's own sequence. */
