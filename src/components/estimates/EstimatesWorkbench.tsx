@@ -1,4 +1,8 @@
-import { useState, type FormEvent, type ReactNode } from 'react';
+import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
+import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '../../core/estimates/defaults-from-part';
+import { nearestPreferredValue, type ESeries } from '../../core/estimates/preferred-values';
+import { solveSelfBias } from '../../core/estimates/solve-self-bias';
+import { columnFormat, formatPlain } from '../../core/units/format-quantity';
 import type { estimateMixerProducts } from '../../lib/server/services/estimates/estimate-mixer';
 import type { estimateSelfBias } from '../../lib/server/services/estimates/self-bias';
 import type { estimateMatchedSet } from '../../lib/server/services/estimates/matched-set';
@@ -11,7 +15,9 @@ import {
   FormInputError,
   fieldErrorsFromServer,
   mixerBody,
+  partDefaults,
   partFields,
+  PART_DERIVED_FIELDS,
   readNumber,
   readSetRef,
   selfBiasBody,
@@ -35,7 +41,7 @@ interface PartOutcome {
   errors: string[];
 }
 
-function Field({ field, errors, children, hint, label }: { field: FormField; errors: FieldErrors; children: ReactNode; hint?: string; label?: string }) {
+function Field({ field, errors, children, hint, label, caution }: { field: FormField; errors: FieldErrors; children: ReactNode; hint?: string; label?: string; caution?: string }) {
   const err = errors[field];
   return (
     <div>
@@ -49,6 +55,11 @@ function Field({ field, errors, children, hint, label }: { field: FormField; err
           {err}
         </p>
       )}
+      {caution && !err && (
+        <p className="mt-0.5 text-xs text-state-review" id={`est-${field}-caution`} data-testid={`caution-${field}`}>
+          {caution}
+        </p>
+      )}
     </div>
   );
 }
@@ -57,46 +68,118 @@ function v(x: number, digits = 4) {
   return formatQuantity(x, 'V', digits);
 }
 
+interface BiasRow {
+  label: string;
+  rsOhm: number;
+  idA: number;
+  vgsV: number;
+  gmS: number;
+  gosS: number;
+  gain: { bypassed: number; unbypassed: number } | null;
+  saturated: boolean;
+  testId?: string;
+}
+
+const fromBody = (label: string, p: SelfBiasPointBody): BiasRow => ({
+  label,
+  rsOhm: p.source_resistor_ohm,
+  idA: p.drain_current_a,
+  vgsV: p.vgs_v,
+  gmS: p.gm_s,
+  gosS: p.gos_s,
+  gain: p.gain ? { bypassed: p.gain.bypassed_v_per_v, unbypassed: p.gain.unbypassed_v_per_v } : null,
+  saturated: p.saturated,
+});
+
+/**
+ * The resistor the target needs rounded to the nearest IEC 60063 E24 and E96 values, and the
+ * current each sets, solved with the same model as the server's answer (its `params`).
+ */
+function preferredRows(r: SelfBiasResult): BiasRow[] {
+  const t = r.for_target_current;
+  if (!t) return [];
+  const params = { vtoV: r.params.vto_v, betaAPerV2: r.params.beta_a_per_v2, lambdaPerV: r.params.lambda_per_v, rsOhm: r.params.rs_ohm, rdOhm: r.params.rd_ohm };
+  return (['E24', 'E96'] as ESeries[]).flatMap((series) => {
+    const rs = nearestPreferredValue(t.source_resistor_ohm, series);
+    if (rs === null) return [];
+    try {
+      const p = solveSelfBias(params, { rsOhm: rs, vdsV: t.vds_v, channel: r.channel, ...(t.gain ? { drainLoadOhm: t.gain.drain_load_ohm } : {}) });
+      return [
+        {
+          label: `nearest ${series} (IEC 60063)`,
+          rsOhm: rs,
+          idA: p.idA,
+          vgsV: p.vgsV,
+          gmS: p.gmS,
+          gosS: p.gosS,
+          gain: p.gain ? { bypassed: p.gain.bypassed, unbypassed: p.gain.unbypassed } : null,
+          saturated: p.saturated,
+          testId: `preferred-${series}`,
+        },
+      ];
+    } catch {
+      return [];
+    }
+  });
+}
+
 function SelfBiasTable({ r }: { r: SelfBiasResult }) {
-  const rows: [string, SelfBiasPointBody][] = [];
-  if (r.for_target_current) rows.push(['for the target current', r.for_target_current]);
-  if (r.for_source_resistor) rows.push(['with the given resistor', r.for_source_resistor]);
+  const rows: BiasRow[] = [];
+  const bodies: SelfBiasPointBody[] = [];
+  if (r.for_target_current) {
+    rows.push(fromBody('for the target current', r.for_target_current), ...preferredRows(r));
+    bodies.push(r.for_target_current);
+  }
+  if (r.for_source_resistor) {
+    rows.push(fromBody('with the given resistor', r.for_source_resistor));
+    bodies.push(r.for_source_resistor);
+  }
+  // One unit per column over the rows shown.
+  const col = {
+    rs: columnFormat(rows.map((x) => x.rsOhm), 'Ω', 4),
+    id: columnFormat(rows.map((x) => x.idA), 'A', 4),
+    vgs: columnFormat(rows.map((x) => x.vgsV), 'V', 4),
+    gm: columnFormat(rows.map((x) => x.gmS), 'S', 4),
+    gos: columnFormat(rows.map((x) => x.gosS), 'S', 3),
+  };
+  const gainText = (g: number | undefined) => (g === undefined ? '—' : formatPlain(g, 2));
   return (
     <div className="overflow-x-auto">
       <table className="table-plain" aria-label="Self-bias operating points">
         <thead>
           <tr>
             <th>Case</th>
-            <th className="num">Source resistor</th>
-            <th className="num">ID</th>
-            <th className="num">VGS</th>
-            <th className="num">gm</th>
-            <th className="num">gos</th>
-            <th className="num">Gain, RS bypassed</th>
-            <th className="num">Gain, RS unbypassed</th>
+            <th className="num">RS ({col.rs.unit})</th>
+            <th className="num">ID ({col.id.unit})</th>
+            <th className="num">VGS ({col.vgs.unit})</th>
+            <th className="num">gm ({col.gm.unit})</th>
+            <th className="num">gos ({col.gos.unit})</th>
+            <th className="num">Gain, RS bypassed (V/V)</th>
+            <th className="num">Gain, RS unbypassed (V/V)</th>
             <th>Saturation</th>
           </tr>
         </thead>
         <tbody>
-          {rows.map(([label, p]) => (
-            <tr key={label}>
-              <td>{label}</td>
-              <td className="num">{formatQuantity(p.source_resistor_ohm, 'Ω')}</td>
-              <td className="num">{formatQuantity(p.drain_current_a, 'A')}</td>
-              <td className="num">{v(p.vgs_v)}</td>
-              <td className="num">{formatQuantity(p.gm_s, 'S')}</td>
-              <td className="num">{formatQuantity(p.gos_s, 'S')}</td>
-              <td className="num">{p.gain ? `${p.gain.bypassed_v_per_v.toFixed(2).replace('-', '\u2212')} V/V` : '—'}</td>
-              <td className="num">{p.gain ? `${p.gain.unbypassed_v_per_v.toFixed(2).replace('-', '\u2212')} V/V` : '—'}</td>
+          {rows.map((p) => (
+            <tr key={p.label} data-testid={p.testId} className={p.testId ? 'text-ink-soft' : undefined}>
+              <td>{p.label}</td>
+              <td className="num">{col.rs.number(p.rsOhm)}</td>
+              <td className="num">{col.id.number(p.idA)}</td>
+              <td className="num">{col.vgs.number(p.vgsV)}</td>
+              <td className="num">{col.gm.number(p.gmS)}</td>
+              <td className="num">{col.gos.number(p.gosS)}</td>
+              <td className="num">{gainText(p.gain?.bypassed)}</td>
+              <td className="num">{gainText(p.gain?.unbypassed)}</td>
               <td>{p.saturated ? <span className="tag-ok">saturated</span> : <span className="tag-fault">not saturated</span>}</td>
             </tr>
           ))}
         </tbody>
       </table>
-      {rows.some(([, p]) => p.gain) && (
-        <p className="text-xs text-ink-faint mt-1">Gain into RD = {formatQuantity(rows.find(([, p]) => p.gain)![1].gain!.drain_load_ohm, 'Ω', 2)}, at |VDS| {rows[0][1].vds_v} V, gos included.</p>
+      {bodies.some((p) => p.gain) && (
+        <p className="text-xs text-ink-faint mt-1">Gain into RD = {formatQuantity(bodies.find((p) => p.gain)!.gain!.drain_load_ohm, 'Ω', 3)}, at |VDS| {formatQuantity(bodies[0].vds_v, 'V', 3)}, gos included.</p>
       )}
-      {rows.flatMap(([, p]) => p.warnings).map((w) => (
+      {r.for_target_current && <p className="text-xs text-ink-faint mt-1">Preferred values: the nearest E24 (5 %) and E96 (1 %) resistors of IEC 60063, and the current each sets in this part.</p>}
+      {bodies.flatMap((p) => p.warnings).map((w) => (
         <p key={w} className="notice-caution mt-2">
           {w}
         </p>
@@ -152,6 +235,18 @@ function PartCard({ o }: { o: PartOutcome }) {
   );
 }
 
+/** A number typed by a person ("−" and a decimal comma accepted); undefined when blank or not a number. */
+function typed(text: string): number | undefined {
+  const raw = text.trim().replace('\u2212', '-').replace(',', '.');
+  if (raw === '') return undefined;
+  const v = Number(raw);
+  return Number.isFinite(v) ? v : undefined;
+}
+const scaled = (text: string, factor: number) => {
+  const v = typed(text);
+  return v === undefined ? undefined : v * factor;
+};
+
 function messageOf(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
@@ -165,12 +260,107 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
   const [outcomes, setOutcomes] = useState<PartOutcome[]>([]);
   const [setResult, setSetResult] = useState<SetResult | null>(null);
   const set = (patch: Partial<EstimateForm>) => setForm((f) => ({ ...f, ...patch }));
+  // Inputs the person typed keep their value; the others follow the part.
+  const [touched, setTouched] = useState<ReadonlySet<FormField>>(new Set());
+  const [stored, setStored] = useState<(PartFigures & { serial: string }) | null>(null);
+  const [storedNote, setStoredNote] = useState<string>();
+
+  useEffect(() => {
+    if (form.source !== 'part') return;
+    const serial = form.serial.trim();
+    if (!serial) {
+      setStored(null);
+      setStoredNote(undefined);
+      return;
+    }
+    let live = true;
+    const timer = setTimeout(() => {
+      apiFetch<{ idss_a: number | null; vp_v: number | null }>(`/api/parts/${encodeURIComponent(serial)}`)
+        .then((p) => {
+          if (!live) return;
+          if (p.idss_a === null || p.vp_v === null) {
+            setStored(null);
+            setStoredNote(`${serial} has no fit yet, so nothing to start from.`);
+          } else {
+            setStored({ serial, idssA: p.idss_a, vpV: p.vp_v });
+            setStoredNote(undefined);
+          }
+        })
+        .catch((e: Error) => {
+          if (!live) return;
+          setStored(null);
+          setStoredNote(e.message);
+        });
+    }, 350);
+    return () => {
+      live = false;
+      clearTimeout(timer);
+    };
+  }, [form.source, form.serial]);
+
+  const figures: PartFigures | null = useMemo(() => {
+    if (form.source === 'datasheet') {
+      const idss = typed(form.idss_ma);
+      const vp = typed(form.vp_v);
+      return idss !== undefined && vp !== undefined && idss > 0 && vp !== 0 ? { idssA: idss * 1e-3, vpV: vp } : null;
+    }
+    if (form.source === 'part' && stored && stored.serial === form.serial.trim()) return stored;
+    return null;
+  }, [form.source, form.idss_ma, form.vp_v, form.serial, stored]);
+
+  useEffect(() => {
+    if (!figures) return;
+    const d = partDefaults(estimateDefaultsForPart(figures));
+    setForm((f) => {
+      const next = { ...f };
+      let changed = false;
+      for (const k of PART_DERIVED_FIELDS) {
+        if (!touched.has(k) && f[k] !== d[k]) {
+          next[k] = d[k];
+          changed = true;
+        }
+      }
+      return changed ? next : f;
+    });
+    // Only a new part resets the defaults; typing elsewhere must not.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [figures?.idssA, figures?.vpV]);
+
+  /** What this part cannot take among the inputs, beside each field. */
+  const live = useMemo(() => {
+    const errs: FieldErrors = {};
+    const cautions: FieldErrors = {};
+    if (!figures) return { errors: errs, cautions };
+    const target = typed(form.target_ma);
+    const problems = checkInputsAgainstPart(figures, {
+      targetCurrentA: target === undefined ? undefined : target * 1e-3,
+      vgs0V: form.mixer ? (form.bias_mode === 'vgs0' ? typed(form.vgs0_v) : form.bias_mode === 'half_vp' ? estimateDefaultsForPart(figures).vgs0V : undefined) : undefined,
+      loAmplitudeV: form.mixer ? scaled(form.lo_mv, 1e-3) : undefined,
+      rfAmplitudeV: form.mixer ? scaled(form.rf_mv, 1e-3) : undefined,
+    });
+    const field = { targetCurrentA: 'target_ma', vgs0V: 'vgs0_v', loAmplitudeV: 'lo_mv', rfAmplitudeV: 'rf_mv' } as const;
+    for (const p of problems) (p.severity === 'error' ? errs : cautions)[field[p.field]] = p.message;
+    return { errors: errs, cautions };
+  }, [figures, form.target_ma, form.mixer, form.bias_mode, form.vgs0_v, form.lo_mv, form.rf_mv]);
+  const shownErrors: FieldErrors = { ...live.errors, ...errors };
+
+  /** VGS0 = VP/2 of the part a request is for (its own VP for each part of a set). */
+  async function halfVpOf(part: Parameters<typeof selfBiasBody>[1]): Promise<number> {
+    if ('vp_v' in part) return estimateDefaultsForPart({ idssA: part.idss_a, vpV: part.vp_v }).vgs0V;
+    if (stored && stored.serial === part.serial) return estimateDefaultsForPart(stored).vgs0V;
+    const p = await apiFetch<{ idss_a: number | null; vp_v: number | null }>(`/api/parts/${encodeURIComponent(part.serial)}`);
+    if (p.idss_a === null || p.vp_v === null) throw new Error(`${part.serial} has no fit, so VP/2 is unknown; choose a fixed VGS0.`);
+    return estimateDefaultsForPart({ idssA: p.idss_a, vpV: p.vp_v }).vgs0V;
+  }
 
   const input = (field: FormField, extra: Record<string, unknown> = {}) => ({
     id: `est-${field}`,
     className: `input ${errors[field] ? 'border-state-fault' : ''}`,
     value: String(form[field]),
-    onChange: (e: { target: { value: string } }) => set({ [field]: e.target.value } as Partial<EstimateForm>),
+    onChange: (e: { target: { value: string } }) => {
+      set({ [field]: e.target.value } as Partial<EstimateForm>);
+      setTouched((t) => (t.has(field) ? t : new Set([...t, field])));
+    },
     'aria-label': FIELD_LABELS[field],
     'aria-invalid': errors[field] ? true : undefined,
     'aria-describedby': errors[field] ? `est-${field}-error` : undefined,
@@ -182,7 +372,15 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     const outcome: PartOutcome = { key: title, title, errors: [] };
     const local: FieldErrors = {};
     const sb = selfBiasBody(form, part, local);
-    const mx = form.mixer ? mixerBody(form, part, local) : null;
+    let vgs0PerPart: number | undefined;
+    if (form.mixer && form.bias_mode === 'half_vp') {
+      try {
+        vgs0PerPart = await halfVpOf(part);
+      } catch (e) {
+        outcome.errors.push(`Mixer: ${messageOf(e)}`);
+      }
+    }
+    const mx = form.mixer && !(form.bias_mode === 'half_vp' && vgs0PerPart === undefined) ? mixerBody(form, part, local, vgs0PerPart) : null;
     const remap = (fe: FieldErrors): FieldErrors => {
       if (form.source !== 'set' || !fe.serial) return fe;
       const { serial, ...rest } = fe;
@@ -244,6 +442,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
         // Check every input before asking the server, so all mistakes show at once.
         selfBiasBody(form, ref ?? { serial: '' }, local);
         if (form.mixer) mixerBody(form, ref ?? { serial: '' }, local);
+        Object.assign(local, live.errors);
         if (Object.keys(local).length || !ref) throw new FormInputError(local);
         parts = [{ ref, title: 'serial' in ref ? ref.serial : `IDSS ${form.idss_ma} mA, VP ${form.vp_v.trim().replace(/^-/, '\u2212')} V` }];
       }
@@ -278,19 +477,19 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
   const drive = (p: 'lo' | 'rf') => (
     <fieldset className="rounded border border-paper-line p-3 grid gap-3 grid-cols-2 md:grid-cols-4 items-start">
       <legend className="px-1 text-sm font-semibold">{p === 'lo' ? 'LO (local oscillator)' : 'RF (signal)'}</legend>
-      <Field field={`${p}_mv`} errors={errors} label="Amplitude (mV peak)">
+      <Field field={`${p}_mv`} errors={shownErrors} label="Amplitude (mV peak)" caution={live.cautions[`${p}_mv`]}>
         <input {...input(`${p}_mv`)} />
       </Field>
-      <Field field={`${p}_terminal`} errors={errors} label="Drives the">
+      <Field field={`${p}_terminal`} errors={shownErrors} label="Drives the">
         <select {...input(`${p}_terminal`, { inputMode: undefined })}>
           <option value="gate">gate</option>
           <option value="source">source</option>
         </select>
       </Field>
-      <Field field={`${p}_mhz`} errors={errors} label="Frequency (MHz)">
+      <Field field={`${p}_mhz`} errors={shownErrors} label="Frequency (MHz)">
         <input {...input(`${p}_mhz`)} />
       </Field>
-      <Field field={`${p}_leak_mv`} errors={errors} label="Leak (mV peak)" hint="in-phase copy on the other terminal">
+      <Field field={`${p}_leak_mv`} errors={shownErrors} label="Leak (mV peak)" hint="in-phase copy on the other terminal">
         <input {...input(`${p}_leak_mv`)} placeholder="0" />
       </Field>
     </fieldset>
@@ -318,39 +517,43 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
             </div>
             {form.source === 'datasheet' && (
               <div className="grid gap-3 sm:grid-cols-3">
-                <Field field="idss_ma" errors={errors}>
+                <Field field="idss_ma" errors={shownErrors}>
                   <input {...input('idss_ma')} />
                 </Field>
-                <Field field="vp_v" errors={errors} hint="negative: N-channel; positive: P">
+                <Field field="vp_v" errors={shownErrors} hint="negative: N-channel; positive: P">
                   <input {...input('vp_v')} />
                 </Field>
-                <Field field="lambda_per_v" errors={errors} hint="self-bias only; 0 when blank">
+                <Field field="lambda_per_v" errors={shownErrors} hint="self-bias only; 0 when blank">
                   <input {...input('lambda_per_v')} placeholder="0" />
                 </Field>
               </div>
             )}
             {form.source === 'part' && (
-              <Field field="serial" errors={errors} hint="uses the part’s current fit">
+              <Field
+                field="serial"
+                errors={shownErrors}
+                hint={stored && stored.serial === form.serial.trim() ? `IDSS ${formatQuantity(stored.idssA, 'A', 3)}, VP ${v(stored.vpV, 3)}: the bias and drive levels start from these` : storedNote ?? 'uses the part’s current fit'}
+              >
                 <input {...input('serial', { inputMode: undefined, autoComplete: 'off' })} />
               </Field>
             )}
             {form.source === 'set' && (
-              <Field field="set_ref" errors={errors} hint="a reservation id, or serials separated by spaces or commas; each part is estimated from its current fit">
+              <Field field="set_ref" errors={shownErrors} hint="a reservation id, or serials separated by spaces or commas; each part is estimated from its current fit">
                 <textarea {...input('set_ref', { inputMode: undefined, rows: 2 })} />
               </Field>
             )}
             <h2 className="pt-2">2 · Operating point (self-bias)</h2>
             <div className="grid gap-3 sm:grid-cols-2">
-              <Field field="target_ma" errors={errors} hint="gives the source resistor that sets it">
+              <Field field="target_ma" errors={shownErrors} hint={figures ? 'starts at a quarter of the part’s IDSS; gives the source resistor that sets it' : 'gives the source resistor that sets it'}>
                 <input {...input('target_ma')} />
               </Field>
-              <Field field="rs_ohm" errors={errors} hint="gives the current it sets">
+              <Field field="rs_ohm" errors={shownErrors} hint="gives the current it sets">
                 <input {...input('rs_ohm')} />
               </Field>
-              <Field field="vds_v" errors={errors}>
+              <Field field="vds_v" errors={shownErrors}>
                 <input {...input('vds_v')} />
               </Field>
-              <Field field="rd_ohm" errors={errors} hint="for the voltage gain">
+              <Field field="rd_ohm" errors={shownErrors} hint="for the voltage gain">
                 <input {...input('rd_ohm')} />
               </Field>
             </div>
@@ -367,19 +570,30 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
                 <div className="grid gap-3 sm:grid-cols-[auto_1fr] items-end">
                   <fieldset className="text-sm">
                     <legend className="field">{FIELD_LABELS.bias_mode}</legend>
-                    <label className="mr-3 whitespace-nowrap">
-                      <input type="radio" name="bias" checked={form.bias_mode === 'vgs0'} onChange={() => set({ bias_mode: 'vgs0' })} /> VGS0
+                    <label className="mr-3 block whitespace-nowrap sm:inline">
+                      <input type="radio" name="bias" checked={form.bias_mode === 'half_vp'} onChange={() => set({ bias_mode: 'half_vp' })} /> VP/2 of the part
                     </label>
-                    <label className="whitespace-nowrap">
+                    <label className="mr-3 block whitespace-nowrap sm:inline">
+                      <input type="radio" name="bias" checked={form.bias_mode === 'vgs0'} onChange={() => set({ bias_mode: 'vgs0' })} /> a fixed VGS0
+                    </label>
+                    <label className="block whitespace-nowrap sm:inline">
                       <input type="radio" name="bias" checked={form.bias_mode === 'rs'} onChange={() => set({ bias_mode: 'rs' })} /> source resistor
                     </label>
                   </fieldset>
-                  {form.bias_mode === 'vgs0' ? (
-                    <Field field="vgs0_v" errors={errors}>
+                  {form.bias_mode === 'half_vp' ? (
+                    <p className="text-sm text-ink-soft" data-testid="half-vp-bias">
+                      {figures
+                        ? `VGS0 ${v(estimateDefaultsForPart(figures).vgs0V, 3)}: half of this part's VP, a quarter of its IDSS (square law).`
+                        : form.source === 'set'
+                          ? 'Each part of the set at half its own VP, a quarter of its IDSS (square law).'
+                          : 'Half of the part’s VP, a quarter of its IDSS (square law), once the part is known.'}
+                    </p>
+                  ) : form.bias_mode === 'vgs0' ? (
+                    <Field field="vgs0_v" errors={shownErrors} hint={figures ? `this part: between ${v(figures.vpV, 3)} (VP) and 0 V` : 'between VP and 0 V'}>
                       <input {...input('vgs0_v')} />
                     </Field>
                   ) : (
-                    <Field field="mixer_rs_ohm" errors={errors}>
+                    <Field field="mixer_rs_ohm" errors={shownErrors}>
                       <input {...input('mixer_rs_ohm')} />
                     </Field>
                   )}
@@ -387,10 +601,10 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
                 {drive('lo')}
                 {drive('rf')}
                 <div className="grid gap-3 sm:grid-cols-2">
-                  <Field field="load_ohm" errors={errors}>
+                  <Field field="load_ohm" errors={shownErrors}>
                     <input {...input('load_ohm')} />
                   </Field>
-                  <Field field="probe_pf" errors={errors} hint="in parallel with R">
+                  <Field field="probe_pf" errors={shownErrors} hint="in parallel with R">
                     <input {...input('probe_pf')} placeholder="0" />
                   </Field>
                 </div>

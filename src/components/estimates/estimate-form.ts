@@ -4,7 +4,8 @@
  */
 
 export type PartSource = 'datasheet' | 'part' | 'set';
-export type BiasMode = 'vgs0' | 'rs';
+/** 'half_vp': VGS0 = VP/2 of each part (a quarter of its IDSS); 'vgs0': one fixed VGS0; 'rs': a self-bias resistor. */
+export type BiasMode = 'half_vp' | 'vgs0' | 'rs';
 export type Terminal = 'gate' | 'source';
 
 export interface EstimateForm {
@@ -35,7 +36,11 @@ export interface EstimateForm {
 }
 export type FormField = keyof EstimateForm;
 
-/** Starts at a worked bench case: a square-law part with LO on the source and RF on the gate. */
+/**
+ * Starts at a worked bench case: a square-law part with LO on the source and RF on the gate.
+ * The bias, the target current and the drive levels follow the part (`partDefaults`); the
+ * mixer is off until asked for.
+ */
 export const DEFAULT_FORM: EstimateForm = {
   source: 'datasheet',
   idss_ma: '10.12',
@@ -44,18 +49,18 @@ export const DEFAULT_FORM: EstimateForm = {
   serial: '',
   set_ref: '',
   vds_v: '10',
-  target_ma: '2',
-  rs_ohm: '680',
+  target_ma: '2.5',
+  rs_ohm: '',
   rd_ohm: '2200',
-  mixer: true,
-  bias_mode: 'vgs0',
-  vgs0_v: '-1.78',
+  mixer: false,
+  bias_mode: 'half_vp',
+  vgs0_v: '-1.95',
   mixer_rs_ohm: '',
-  lo_mv: '400',
+  lo_mv: '1170',
   lo_terminal: 'source',
   lo_mhz: '10',
   lo_leak_mv: '',
-  rf_mv: '132',
+  rf_mv: '390',
   rf_terminal: 'gate',
   rf_mhz: '10.7',
   rf_leak_mv: '',
@@ -154,7 +159,8 @@ export function selfBiasBody(form: EstimateForm, part: { serial: string } | Part
   };
 }
 
-export function mixerBody(form: EstimateForm, part: { serial: string } | PartRef, errors: FieldErrors) {
+/** `vgs0PerPart`: the part's own VP/2 when the bias follows each part. */
+export function mixerBody(form: EstimateForm, part: { serial: string } | PartRef, errors: FieldErrors, vgs0PerPart?: number) {
   const drive = (p: 'lo' | 'rf') => {
     const leak = readNumber(form, `${p}_leak_mv`, errors, false, 1e-3);
     return {
@@ -166,7 +172,11 @@ export function mixerBody(form: EstimateForm, part: { serial: string } | PartRef
   };
   const probe = readNumber(form, 'probe_pf', errors, false, 1e-12);
   const bias =
-    form.bias_mode === 'vgs0' ? { vgs0_v: readNumber(form, 'vgs0_v', errors, true) } : { source_resistor_ohm: readNumber(form, 'mixer_rs_ohm', errors, true) };
+    form.bias_mode === 'rs'
+      ? { source_resistor_ohm: readNumber(form, 'mixer_rs_ohm', errors, true) }
+      : form.bias_mode === 'half_vp'
+        ? { vgs0_v: vgs0PerPart ?? readNumber(form, 'vgs0_v', errors, false) }
+        : { vgs0_v: readNumber(form, 'vgs0_v', errors, true) };
   const { lambda_per_v: _lambda, ...mixerPart } = part as PartRef & { lambda_per_v?: number };
   return {
     ...mixerPart,
@@ -226,4 +236,13 @@ export function fieldErrorsFromServer(kind: keyof typeof SERVER_FIELDS, body: un
     if (key && !out[key]) out[key] = f.message;
   }
   return out;
+}
+
+/** Fields whose starting value comes from the part (until the person types their own). */
+export const PART_DERIVED_FIELDS = ['target_ma', 'vgs0_v', 'lo_mv', 'rf_mv'] as const;
+
+/** The form values `estimateDefaultsForPart` gives, in the units the form is typed in. */
+export function partDefaults(d: { targetCurrentA: number; vgs0V: number; loAmplitudeV: number; rfAmplitudeV: number }): Pick<EstimateForm, (typeof PART_DERIVED_FIELDS)[number]> {
+  const text = (x: number) => String(Number(x.toPrecision(4)));
+  return { target_ma: text(d.targetCurrentA * 1e3), vgs0_v: text(d.vgs0V), lo_mv: text(d.loAmplitudeV * 1e3), rf_mv: text(d.rfAmplitudeV * 1e3) };
 }

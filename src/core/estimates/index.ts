@@ -7,3 +7,5 @@ export * from './source-resistor-for-current';
 export * from './mixer-input';
 export * from './estimate-mixer';
 export * from './matched-set-implications';
+export * from './preferred-values';
+export * from './defaults-from-part';
