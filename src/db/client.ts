@@ -1,7 +1,10 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import { serverEnv } from '../lib/server/env';
+import { throttledErrorLog } from '../lib/server/throttled-log';
 import * as schema from './schema';
+
+const poolErrorLog = throttledErrorLog('[db] idle connection lost:');
 
 export type Database = NodePgDatabase<typeof schema>;
 /** A transaction handle or the database itself: services accept either. */
@@ -14,6 +17,10 @@ let database: Database | undefined;
 export function getDb(): Database {
   if (!database) {
     pool = new pg.Pool({ connectionString: serverEnv().databaseUrl, max: serverEnv().dbPoolSize });
+    // An idle connection that the server closes (a restart, an administrator's kill) is
+    // reported here; without a listener that would end the process. The pool drops the
+    // connection and opens a new one for the next query.
+    pool.on('error', poolErrorLog);
     database = drizzle(pool, { schema });
   }
   return database;
