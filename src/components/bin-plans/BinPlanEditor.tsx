@@ -2,7 +2,9 @@ import { useEffect, useMemo, useState } from 'react';
 import type { BinPlan, BinQuantity } from '../../core/binning';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
+import { formatDate } from '../../core/units/format-date';
 import { axisToForm, defaultAxes, formToPlan, QUANTITY_NAMES, type AxisForm } from './plan-form';
+import PlanGridPreview, { type PreviewPoint } from './PlanGridPreview';
 
 interface PlanRow {
   id: number;
@@ -37,6 +39,11 @@ interface Preview {
   moves: { serial: string; from: string; to: string }[];
   relabelled: { code: string; oldLabel: string; newLabel: string }[];
   bins: { code: string; label: string; is_hold: boolean; parts: number }[];
+  definition: BinPlan;
+  old_definition: BinPlan | null;
+  physical_move_count: number;
+  points: PreviewPoint[];
+  points_left_off: number;
 }
 
 function AxisEditor({ axis, index, onChange, onRemove }: { axis: AxisForm; index: number; onChange: (a: AxisForm) => void; onRemove?: () => void }) {
@@ -180,18 +187,32 @@ export default function BinPlanEditor() {
             <ul className="grid grid-cols-2 md:grid-cols-4 gap-3 text-sm">
               <li><span className="block text-ink-faint text-xs">Bins</span><span className="text-xl font-semibold">{preview.bin_count}</span></li>
               <li><span className="block text-ink-faint text-xs">Parts considered</span><span className="text-xl font-semibold">{preview.parts_considered}</span></li>
-              <li><span className="block text-ink-faint text-xs">Would move</span><span className="text-xl font-semibold text-state-review" data-testid="moved-count">{preview.moved_count}</span></li>
+              <li><span className="block text-ink-faint text-xs">Change bin</span><span className="text-xl font-semibold text-state-review" data-testid="moved-count">{preview.moved_count}</span></li>
               <li><span className="block text-ink-faint text-xs">Stay / first bin</span><span className="text-xl font-semibold">{preview.unchanged_count} / {preview.newly_binned_count}</span></li>
             </ul>
+            <p className="text-sm" data-testid="physical-moves">
+              <strong>{preview.physical_move_count}</strong> part{preview.physical_move_count === 1 ? '' : 's'} on the shelves must be carried to another bag
+              {preview.moved_count > preview.physical_move_count && `; ${preview.moved_count - preview.physical_move_count} more change bin on record only (accepted but not shelved, or issued)`}.
+            </p>
+            <PlanGridPreview oldPlan={preview.old_definition} newPlan={preview.definition} points={preview.points} />
+            {preview.points_left_off > 0 && <p className="text-xs text-ink-faint">The first {preview.points.length} parts are drawn; the counts cover all {preview.parts_considered}.</p>}
             {preview.move_counts.length > 0 ? (
-              <div className="max-h-72 overflow-y-auto">
-                <table className="table-plain">
-                  <thead><tr><th>From bin</th><th>To bin</th><th className="text-right">Parts</th></tr></thead>
-                  <tbody>{preview.move_counts.map((m) => <tr key={`${m.from}-${m.to}`}><td>{m.from}</td><td>{m.to}</td><td className="num">{m.count}</td></tr>)}</tbody>
-                </table>
-              </div>
+              <details>
+                <summary className="cursor-pointer text-sm font-semibold text-ink-soft">From → to, bin by bin ({preview.move_counts.length} pairs)</summary>
+                <div className="mt-2 max-h-72 overflow-y-auto">
+                  <table className="table-plain">
+                    <thead><tr><th>From bin</th><th>To bin</th><th className="text-right">Parts</th></tr></thead>
+                    <tbody>{preview.move_counts.map((m) => <tr key={`${m.from}-${m.to}`}><td>{m.from}</td><td>{m.to}</td><td className="num">{m.count}</td></tr>)}</tbody>
+                  </table>
+                </div>
+              </details>
             ) : (
               <p className="text-sm text-ink-soft">No part already binned changes bin.</p>
+            )}
+            {Object.keys(preview.definition.codes ?? {}).length > 0 && (
+              <p className="text-xs text-ink-soft">
+                {Object.keys(preview.definition.codes ?? {}).length} ranges are new: they get codes of version {preview.next_version} (e.g. {Object.values(preview.definition.codes ?? {})[0]}), because a code an earlier version printed always keeps its range.
+              </p>
             )}
             {preview.relabelled.length > 0 && <p className="notice-caution">{preview.relabelled.length} bins keep their code but change range: reprint their labels ({preview.relabelled.slice(0, 6).map((r) => r.code).join(', ')}{preview.relabelled.length > 6 ? ', …' : ''}).</p>}
             <div className="flex gap-3">
@@ -212,7 +233,7 @@ export default function BinPlanEditor() {
               <div className="flex items-center gap-2">
                 <span className="font-semibold">Version {p.version}</span>
                 {p.is_active && <span className="tag-ok">active</span>}
-                <span className="ml-auto text-ink-faint">{new Date(p.created_at).toLocaleDateString()}</span>
+                <span className="ml-auto text-ink-faint">{formatDate(p.created_at)}</span>
               </div>
               {p.name && <div>{p.name}</div>}
               <div className="text-ink-soft">{p.bin_count} bins · {p.definition.axes.map((a) => a.quantity.toUpperCase().replace('_AT_CURRENT', '@I')).join(' × ')}{p.created_by ? ` · ${p.created_by}` : ''}</div>

@@ -50,7 +50,15 @@ export const BinAxis = z.object({
 export type BinAxis = z.infer<typeof BinAxis>;
 
 export const BinPlan = z
-  .object({ axes: z.array(BinAxis).min(1, 'a plan has one or two axes').max(2, 'a plan has one or two axes') })
+  .object({
+    axes: z.array(BinAxis).min(1, 'a plan has one or two axes').max(2, 'a plan has one or two axes'),
+    /**
+     * Codes this version gives grid cells instead of their positional code ("I07-P03" →
+     * "I07-P03.v2"), so that no version reuses a code for a different range; see
+     * `withStableBinCodes`. Written by the server when a version is saved.
+     */
+    codes: z.record(z.string(), z.string().regex(/^[A-Z0-9][A-Za-z0-9.-]{0,39}$/, 'a bin code is letters, digits, "." and "-"')).optional(),
+  })
   .superRefine((plan, ctx) => {
     for (const issue of binPlanIssues(plan)) {
       ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });

@@ -5,3 +5,4 @@ export * from './bin-label';
 export * from './assign-bin';
 export * from './bin-catalogue';
 export * from './plan-moves';
+export * from './stable-bin-codes';

@@ -1,4 +1,4 @@
-import { eq, inArray, max } from 'drizzle-orm';
+import { asc, eq, inArray, max } from 'drizzle-orm';
 import { binCatalogue } from '../../../../core/binning';
 import { getDb, schema } from '../../../../db/client';
 import { writeAudit } from '../../audit';
@@ -9,19 +9,20 @@ import { findDeviceType } from '../bins/device-type-ref';
 import { computeRebin } from './compute-moves';
 import { activePlanOf, assertPlanSize, parsePlanDefinition } from './load';
 import { BinPlanDraft } from './schemas';
+import { withStableCodesFor } from './stable-codes';
 
 /**
  * Saves a plan as the type's next version and makes it active, in one transaction: creates its
- * bins (home location, threshold and alert state carried over from the previous version's bin
- * of the same code), points every binned part at its bin in the new version, and records a
+ * bins (home location, threshold and alert state carried over from the latest earlier bin of
+ * the same code, which has the same range), points every binned part at its bin in the new version, and records a
  * bin assignment and an audit entry for exactly the parts whose bin code changes (and those
  * binned for the first time). Earlier versions, their bins and all assignments stay.
  */
 export async function activateBinPlan({ actor, input }: { actor: Actor | null; input: unknown }) {
   requirePermission(actor, 'binPlans:manage');
   const draft = BinPlanDraft.parse(input);
-  const plan = parsePlanDefinition(draft.definition);
-  assertPlanSize(plan);
+  const draftPlan = parsePlanDefinition(draft.definition);
+  assertPlanSize(draftPlan);
   const db = getDb();
   const { out, alerts } = await db.transaction(async (tx) => {
     const type = await findDeviceType(tx, draft.device_type);
@@ -34,17 +35,25 @@ export async function activateBinPlan({ actor, input }: { actor: Actor | null; i
         `The active plan of ${type.name} changed since this preview (now ${active ? `version ${active.version}` : 'none'}). Preview again before saving.`,
       );
     }
-    const rebin = await computeRebin(tx, type, active, plan, { lock: true });
     const [{ last }] = await tx.select({ last: max(schema.binPlan.version) }).from(schema.binPlan).where(eq(schema.binPlan.deviceTypeId, type.id));
     const version = (last ?? 0) + 1;
+    const plan = await withStableCodesFor(tx, type.id, draftPlan, version);
+    const rebin = await computeRebin(tx, type, active, plan, { lock: true });
     if (active) await tx.update(schema.binPlan).set({ isActive: false }).where(eq(schema.binPlan.id, active.id));
     const [created] = await tx
       .insert(schema.binPlan)
       .values({ deviceTypeId: type.id, version, name: draft.name, definition: plan, isActive: true, createdBy: actor.userId })
       .returning();
 
-    const previous = active ? await tx.select().from(schema.bin).where(eq(schema.bin.binPlanId, active.id)) : [];
-    const prevByCode = new Map(previous.map((b) => [b.code, b]));
+    // A code means one range in every version, so a bin's home, threshold and alert state carry
+    // over from the latest earlier bin of the same code, whichever version that was.
+    const previous = await tx
+      .select({ bin: schema.bin })
+      .from(schema.bin)
+      .innerJoin(schema.binPlan, eq(schema.binPlan.id, schema.bin.binPlanId))
+      .where(eq(schema.binPlan.deviceTypeId, type.id))
+      .orderBy(asc(schema.binPlan.version));
+    const prevByCode = new Map(previous.map(({ bin }) => [bin.code, bin]));
     const bins = await tx
       .insert(schema.bin)
       .values(

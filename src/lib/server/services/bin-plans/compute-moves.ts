@@ -1,5 +1,5 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { assignBin, planMoves, type BinPlan, type PlanMoves } from '../../../../core/binning';
+import { assignBin, planMoves, type BinFigures, type BinPlan, type PlanMoves } from '../../../../core/binning';
 import { schema, type DbOrTx } from '../../../../db/client';
 import { BINNABLE_REVIEWS } from '../bins/assign-bins';
 import { binFiguresOf } from '../bins/figures';
@@ -14,6 +14,9 @@ export interface PartToRebin {
   /** Code of its bin when that bin belongs to the active plan; otherwise null. */
   currentCode: string | null;
   newCode: string;
+  status: string;
+  /** The figures the new plan bins on (SI, datasheet sign). */
+  figures: BinFigures;
 }
 
 export interface RebinPlan {
@@ -41,7 +44,7 @@ export async function computeRebin(
   { lock }: { lock: boolean },
 ): Promise<RebinPlan> {
   let q = tx
-    .select({ id: schema.part.id, serial: schema.part.serial, binId: schema.part.binId, fit: schema.fit })
+    .select({ id: schema.part.id, serial: schema.part.serial, binId: schema.part.binId, status: schema.part.status, fit: schema.fit })
     .from(schema.part)
     .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .where(
@@ -69,6 +72,8 @@ export async function computeRebin(
       binId: r.binId,
       currentCode: r.binId !== null ? codeOf.get(r.binId) ?? null : null,
       newCode: assignBin(newPlan, figures).code,
+      status: r.status,
+      figures,
     };
   });
   const binned = parts.filter((p) => p.currentCode !== null);
