@@ -37,8 +37,8 @@ describe('collectScanBatch (what a USB scanner types: the serial, then Enter)', 
     expect(out.serials).toEqual(['WS-0001', 'WS-0002', 'WS-0003', 'WS-0004']);
     expect(out.repeated).toEqual(['WS-0001']);
   });
-  it('is case-sensitive, as serials are stored', () => {
-    expect(collectScanBatch(['ab-1', 'AB-1']).serials).toEqual(['ab-1', 'AB-1']);
+  it('upper-cases by the one serial rule, so "ab-1" and "AB-1" are one part', () => {
+    expect(collectScanBatch(['ab-1', 'AB-1']).serials).toEqual(['AB-1']);
     expect(cleanScannedSerial('\u001d X \u0004')).toBe('X');
   });
 });

@@ -160,6 +160,17 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
         </div>
       )}
 
+      {(part.current_sweep?.notes.length ?? 0) > 0 && (
+        <div className="notice-info" role="note" aria-label="Intake notes">
+          <p className="mb-1 font-semibold">When the sweep file was read:</p>
+          <ul className="list-disc space-y-1 pl-5">
+            {part.current_sweep!.notes.map((n, i) => (
+              <li key={i}>{n.message}</li>
+            ))}
+          </ul>
+        </div>
+      )}
+
       <div className="grid gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <section className="card" aria-labelledby="curves-heading">
           <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">

@@ -47,7 +47,13 @@ export interface PartJson {
   standard_errors: Record<string, number | null> | null;
   test_conditions: { temperature_c: number | null; station: string | null; operator: string | null; vds_test_v: number; measured_at: string } | null;
   model_card: string | null;
-  current_sweep: { sweep_id: number; curves: ApiCurve[]; excluded_points: [number, number][] } | null;
+  current_sweep: {
+    sweep_id: number;
+    curves: ApiCurve[];
+    excluded_points: [number, number][];
+    /** What the intake left out or kept short, and why (gate leakage, short curves). */
+    notes: { code: string; vgs_v: number | null; message: string }[];
+  } | null;
   sweeps: {
     sweep_id: number;
     measured_at: string;

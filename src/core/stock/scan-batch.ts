@@ -1,7 +1,10 @@
+import { normalizeSerial } from '../serial/normalize-serial';
+
 /**
- * What a barcode scanner typed, turned into a batch of serials: each entry trimmed, control
- * characters (a scanner's prefix/suffix codes) removed, blanks dropped, and a serial scanned
- * twice kept once at its first position. Serials compare case-sensitively, as stored.
+ * What a barcode scanner typed, turned into a batch of serials: each entry normalized by the
+ * one serial rule (`normalizeSerial`: control characters such as a scanner's prefix/suffix
+ * codes removed, surrounding blanks trimmed, upper case), blanks dropped, and a serial scanned
+ * twice kept once at its first position.
  */
 export interface ScanBatch {
   serials: string[];
@@ -10,8 +13,7 @@ export interface ScanBatch {
 }
 
 export function cleanScannedSerial(raw: string): string {
-  // eslint-disable-next-line no-control-regex
-  return raw.replace(/[\u0000-\u001f\u007f]/g, '').trim();
+  return normalizeSerial(raw);
 }
 
 export function collectScanBatch(scans: readonly string[]): ScanBatch {

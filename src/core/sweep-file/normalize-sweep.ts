@@ -145,7 +145,8 @@ export function normalizeSweep(
   const nVgs = (i: number) => snapVgs(flipVgs ? -raw.vgsV[i] : raw.vgsV[i]);
   const forward = (i: number) => nVgs(i) > VGS_STEP_RESOLUTION_V;
 
-  const floors = noiseFloors(raw, partCount, maxAbsId, vdsZero, forward, nVgs);
+  const noise = noiseFloors(raw, partCount, maxAbsId, vdsZero, forward, nVgs);
+  const floors = noise.map((n) => n.floorA);
 
   // Drain current against the sign it should have: gate leakage, noise or a real conflict.
   const leak = new Uint8Array(pointCount);
@@ -153,15 +154,17 @@ export function normalizeSweep(
   let idAgainstLine = 0;
   for (let i = 0; i < pointCount; i++) {
     const signed = raw.idA[i] * idSign;
-    if (Math.abs(signed) <= floors[raw.partIndex[i]]) continue;
-    if (signed > 0) {
-      idWithLine ||= raw.line[i];
+    const n = noise[raw.partIndex[i]];
+    // The gate diode conducts on a forward step: at VDS = 0, where the channel carries nothing,
+    // the drain then reads part of the gate current, against the channel current's sign. A
+    // reading beyond the noise seen there (offset + 2σ) is that current.
+    if (signed < 0 && forward(i) && vdsZero(i) && -signed > Math.min(n.floorA, n.offsetA + 2 * n.sigmaA)) {
+      leak[i] = 1;
       continue;
     }
-    // The gate diode conducts on a forward step: at VDS = 0 the drain then carries part of the
-    // gate current, against the channel current's sign.
-    if (forward(i) && vdsZero(i)) {
-      leak[i] = 1;
+    if (Math.abs(signed) <= n.floorA) continue;
+    if (signed > 0) {
+      idWithLine ||= raw.line[i];
       continue;
     }
     idAgainstLine ||= raw.line[i];
@@ -267,7 +270,7 @@ function noiseFloors(
   vdsZero: (i: number) => boolean,
   forward: (i: number) => boolean,
   nVgs: (i: number) => number,
-): number[] {
+): { floorA: number; offsetA: number; sigmaA: number }[] {
   const peakByStep: Map<number, number>[] = [];
   for (let p = 0; p < partCount; p++) peakByStep.push(new Map());
   for (let i = 0; i < raw.idA.length; i++) {
@@ -284,11 +287,11 @@ function noiseFloors(
   }
   return zeros.map((z, p) => {
     const least = SIGN_NOISE_FRACTION * maxAbsId[p];
-    if (z.length === 0) return least;
+    if (z.length === 0) return { floorA: least, offsetA: 0, sigmaA: 0 };
     const offset = median(z);
-    const mad = median(z.map((v) => Math.abs(v - offset)));
-    const floor = Math.abs(offset) + NOISE_FLOOR_SIGMAS * 1.4826 * mad;
-    return Math.min(Math.max(floor, least), MAX_NOISE_FLOOR_FRACTION * maxAbsId[p]);
+    const sigma = 1.4826 * median(z.map((v) => Math.abs(v - offset)));
+    const floor = Math.abs(offset) + NOISE_FLOOR_SIGMAS * sigma;
+    return { floorA: Math.min(Math.max(floor, least), MAX_NOISE_FLOOR_FRACTION * maxAbsId[p]), offsetA: Math.abs(offset), sigmaA: sigma };
   });
 }
 

@@ -2,7 +2,7 @@ import { and, eq, inArray, isNull, notInArray, sql, type SQL } from 'drizzle-orm
 import type { FitResult, FittedResult } from '../../../../core/fit/definitions';
 import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
-import { capLength, decodeSweepBytes, escapeForMessage, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError, type ParsedSweepFile } from '../../../../core/sweep-file';
+import { capLength, decodeSweepBytes, escapeForMessage, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError, type ParsedSweepFile, type SweepNote } from '../../../../core/sweep-file';
 import { storableErrorMessage, storableText } from '../../../../core/text/storable-text';
 import { getDb, schema } from '../../../../db/client';
 import { insertRowsAsJson, jsonRecordset } from '../../../../db/insert-rows-as-json';
@@ -225,6 +225,18 @@ function outcomeOf(file: UploadFileRow): IngestOutcome {
   return { uploadFileId: file.id, state: file.state, reason: file.reason, serials: file.serials };
 }
 
+/** A parser note as kept in sweep.metadata.notes and shown with the upload and on the part page. */
+export interface SweepNoteJson {
+  code: SweepNote['code'];
+  vgs_v: number | null;
+  lines: number[];
+  message: string;
+}
+
+function toSweepNoteJson(n: SweepNote): SweepNoteJson {
+  return { code: n.code, vgs_v: n.vgsV ?? null, lines: n.lines.slice(0, 50), message: n.message };
+}
+
 /** Parse and fit: everything that needs no database row locked. */
 async function planFile(
   bytes: Buffer,
@@ -309,6 +321,8 @@ async function planFile(
         channel_source: parsed.channelSource ?? null,
         serial_source: p.serialSource,
         lot: lotCode ?? null,
+        sweep_kind: p.kind,
+        notes: p.notes.map(toSweepNoteJson),
         extra: p.metadata.extra,
       },
       curves,

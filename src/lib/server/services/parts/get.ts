@@ -1,3 +1,4 @@
+import { normalizeSerial } from '../../../../core/serial/normalize-serial';
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type { FitResult } from '../../../../core/fit/definitions';
 import { formatModelCard } from '../../../../core/fit/model-card';
@@ -5,6 +6,7 @@ import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
 import { describeAuditRows, type AuditEntryJson } from '../audit/describe-rows';
+import type { SweepNoteJson } from '../intake/ingest-stored-file';
 import type { StoredCurve } from '../sweeps/stored-curves';
 
 /** NaN (a standard error that could not be estimated) is sent as null. */
@@ -78,7 +80,7 @@ export function fitJson(fit: FitRow) {
 
 /**
  * A part with its latest fit, test conditions, sweep history, model card and (for people who
- * may read the audit log) its audit trail. `serial` is matched exactly.
+ * may read the audit log) its audit trail. `serial` is matched after `normalizeSerial`.
  */
 export async function getPartBySerial({ actor, serial }: { actor: Actor | null; serial: string }) {
   requirePermission(actor, 'parts:read');
@@ -90,8 +92,8 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
     .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
     .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
     .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
-    .where(eq(schema.part.serial, serial));
-  if (!row) throw new AppError('not_found', `No part with serial ${serial}. Serials are matched exactly; try the parts search.`);
+    .where(eq(schema.part.serial, normalizeSerial(serial)));
+  if (!row) throw new AppError('not_found', `No part with serial ${normalizeSerial(serial)}. Serials are matched after trimming blanks and upper-casing; try the parts search.`);
   const { part, type, lot, bin, location } = row;
 
   const sweeps = await db
@@ -155,6 +157,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
           sweep_id: currentSweep.id,
           curves: currentSweep.curves as StoredCurve[],
           excluded_points: currentSweep.excludedPoints as [number, number][],
+          notes: ((currentSweep.metadata as { notes?: SweepNoteJson[] } | null)?.notes ?? []).map((n) => ({ code: n.code, vgs_v: n.vgs_v, message: n.message })),
         }
       : null,
     sweeps: sweeps.map(({ sweep, fileName, uploadId }) => ({

@@ -1,3 +1,4 @@
+import { normalizeSerial } from '../../../../core/serial/normalize-serial';
 import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { describePartStatus, type PartStatus } from '../../../../core/stock/part-transitions';
@@ -14,7 +15,7 @@ import { loadPickListView, type PickListView } from './pick-list-view';
 
 /** The serial scanned; it fulfils whichever line of the list it belongs to, in any order. */
 export const ScanRequest = z.object({
-  serial: z.string().trim().min(1, 'scan or type the serial on the part'),
+  serial: z.string().transform(normalizeSerial).pipe(z.string().min(1, 'scan or type the serial on the part')),
 });
 
 export type ScanRefusal = 'not_on_list' | 'already_picked' | 'list_closed';
@@ -67,13 +68,13 @@ export async function scanPickLine({ actor, id, input }: { actor: Actor | null; 
       .where(eq(schema.pickLine.pickListId, listId))
       .orderBy(schema.pickLine.lineNo);
     const hit =
-      lines.find((l) => l.serial === serial) ?? lines.find((l) => l.serial.toLowerCase() === serial.toLowerCase());
+      lines.find((l) => normalizeSerial(l.serial) === serial);
     if (!hit) {
       const [other] = await tx
         .select({ status: schema.part.status, location: schema.location.name })
         .from(schema.part)
         .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
-        .where(sql`lower(${schema.part.serial}) = lower(${serial})`);
+        .where(sql`upper(${schema.part.serial}) = ${serial}`);
       const what = other
         ? `That part is ${describePartStatus(other.status as PartStatus)}${other.location ? ` at ${other.location}` : ''}; leave it where it is.`
         : 'No part has that serial: check the label, or type it by hand.';

@@ -1,8 +1,9 @@
-import { asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
+import type { SweepNoteJson } from '../intake/ingest-stored-file';
 
 export interface UploadFileStatus {
   id: number;
@@ -16,6 +17,11 @@ export interface UploadFileStatus {
   /** The earlier file with the same bytes; state, reason and serials are that file's. */
   duplicate_of: { file_id: number; upload_id: string; name: string } | null;
   finished_at: string | null;
+  /**
+   * What the intake did to the file's parts that the uploader should know (a gate-leak point
+   * left out of the fit, a short curve kept or dropped), per part serial.
+   */
+  notes: { serial: string; code: string; vgs_v: number | null; lines: number[]; message: string }[];
 }
 
 /**
@@ -34,6 +40,22 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
   const originalIds = [...new Set(files.map((f) => f.duplicateOfId).filter((x): x is number => x !== null))];
   const originals = originalIds.length ? await db.select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, originalIds)) : [];
   const byId = new Map(originals.map((o) => [o.id, o]));
+  const sourceIds = files.map((f) => f.duplicateOfId ?? f.id);
+  const noted = sourceIds.length
+    ? await db
+        .select({ uploadFileId: schema.sweep.uploadFileId, serial: schema.part.serial, notes: sql<SweepNoteJson[] | null>`${schema.sweep.metadata}->'notes'` })
+        .from(schema.sweep)
+        .innerJoin(schema.part, eq(schema.part.id, schema.sweep.partId))
+        .where(and(inArray(schema.sweep.uploadFileId, sourceIds), sql`jsonb_array_length(coalesce(${schema.sweep.metadata}->'notes', '[]'::jsonb)) > 0`))
+        .orderBy(asc(schema.sweep.indexInFile))
+    : [];
+  const notesByFile = new Map<number, UploadFileStatus['notes']>();
+  for (const n of noted) {
+    if (n.uploadFileId === null) continue;
+    const list = notesByFile.get(n.uploadFileId) ?? [];
+    for (const note of n.notes ?? []) list.push({ serial: n.serial, ...note });
+    notesByFile.set(n.uploadFileId, list);
+  }
 
   const out: UploadFileStatus[] = files.map((f) => {
     const o = f.duplicateOfId !== null ? byId.get(f.duplicateOfId) : undefined;
@@ -49,6 +71,7 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
       serials: src.serials,
       duplicate_of: o ? { file_id: o.id, upload_id: o.uploadId, name: o.originalName } : null,
       finished_at: (src.finishedAt ?? null)?.toISOString() ?? null,
+      notes: notesByFile.get(src.id) ?? [],
     };
   });
   const counts = { queued: 0, fitted: 0, needs_review: 0, rejected: 0 };
