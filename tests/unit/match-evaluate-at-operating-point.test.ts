@@ -20,7 +20,7 @@ const part = (idssA: number, vtoV: number, extra: Partial<JfetParams> = {}): Jfe
 });
 
 function figures(p: JfetParams, op: Parameters<typeof evaluateAtOperatingPoint>[1]) {
-  const e = evaluateAtOperatingPoint(p, op);
+  const e = evaluateAtOperatingPoint({ params: p }, op);
   if (!e.usable) throw new Error(e.reason);
   return e.figures;
 }
@@ -63,7 +63,7 @@ describe('evaluateAtOperatingPoint against textbook worked examples', () => {
 describe('evaluateAtOperatingPoint refuses points a part cannot run at', () => {
   it('a current above IDSS needs a forward-biased gate', () => {
     // Derived from the model: ID > IDSS in saturation needs VGS > 0.
-    const e = evaluateAtOperatingPoint(part(0.8e-3, -1), { kind: 'current', idA: 1e-3, vdsV: 10 });
+    const e = evaluateAtOperatingPoint({ params: part(0.8e-3, -1) }, { kind: 'current', idA: 1e-3, vdsV: 10 });
     expect(e.usable).toBe(false);
     if (!e.usable) {
       expect(e.code).toBe('forward_gate');
@@ -73,7 +73,7 @@ describe('evaluateAtOperatingPoint refuses points a part cannot run at', () => {
 
   it('a VDS below VGS − VTO leaves the part out of saturation', () => {
     // Derived: IDSS 8 mA, VTO −4 V at 1 mA has VGS − VTO = 4·sqrt(1/8) ≈ 1.41 V > 1 V.
-    const e = evaluateAtOperatingPoint(part(8e-3, -4), { kind: 'current', idA: 1e-3, vdsV: 1 });
+    const e = evaluateAtOperatingPoint({ params: part(8e-3, -4) }, { kind: 'current', idA: 1e-3, vdsV: 1 });
     expect(e.usable).toBe(false);
     if (!e.usable) expect(e.code).toBe('not_saturated');
   });

@@ -1,3 +1,6 @@
+import type { ModelAgreement } from '../operating-point/model-agreement';
+import type { OperatingTable } from '../operating-point/operating-table';
+
 /**
  * Shapes that cross the fitting boundary. All values SI and N-equivalent (a P-channel sweep
  * is converted with `toNEquivalent` before it reaches the fit).
@@ -42,7 +45,8 @@ export type FitFlagCode =
   | 'too_few_saturation_points'
   | 'too_few_curves'
   | 'parameter_at_bound'
-  | 'no_convergence';
+  | 'no_convergence'
+  | 'model_disagrees';
 
 export interface FitFlag {
   code: FitFlagCode;
@@ -50,6 +54,11 @@ export interface FitFlag {
   message: string;
   /** Flat indices (see `FitOptions.excludedPoints`) the flag removed from the fit, if any. */
   excludedPoints?: number[];
+  /**
+   * True for a flag that informs without holding the part: it is listed in the review queue,
+   * but the part is accepted as usual (e.g. `model_disagrees`).
+   */
+  advisory?: boolean;
 }
 
 /** A value with its standard error (same unit); `standardError` is NaN when not estimable. */
@@ -117,9 +126,21 @@ export interface FittedResult {
   quality: FitQuality;
   extendedTest: ExtendedModelTest | null;
   flags: FitFlag[];
-  /** True when any flag is raised: the part goes to the review queue. */
+  /** True when any flag that is not advisory is raised: the part goes to the review queue. */
   needsReview: boolean;
   temperatureC: number | null;
+  /** The fitted model's VGS against the measured one (`compareModelWithMeasurements`), or null. */
+  modelAgreement: ModelAgreement | null;
+  /**
+   * One standard deviation for a VGS taken from the model (outside the measured range): the
+   * larger of the model's disagreement with the measurements and VTO's standard error (V).
+   */
+  modelVgsSigmaV: number;
+  /**
+   * The measurements in compact form, for operating-point figures (`buildOperatingTable`).
+   * Stored in its own column, not with the rest of the result.
+   */
+  operatingTable: OperatingTable | null;
 }
 
 /** The data could not support any fit (e.g. no curve carries current). */

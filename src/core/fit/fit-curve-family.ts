@@ -20,6 +20,7 @@ import {
   breakdownFlag,
   detectBreakdown,
   detectSelfHeating,
+  modelDisagreesFlag,
   noConvergenceFlag,
   notFittableFlag,
   parameterAtBoundFlag,
@@ -39,10 +40,12 @@ import {
 import { prepareCurves, type PreparedCurve } from './prepared-curves.ts';
 import { D_RD, D_RS, SERIES_PARTIALS_LENGTH, seriesCurrentWithPartials } from './series-resistance.ts';
 import { countConductingCurves, estimateStartingValues, type StartingValues } from './starting-values.ts';
+import { compareModelWithMeasurements } from '../operating-point/model-agreement.ts';
+import { buildOperatingTable } from '../operating-point/operating-table.ts';
 
 /** Changes whenever a change here could move a fitted number; stored with every fit. */
 export const FIT_ENGINE_VERSION =
-  'sluice-fit/1.1.0 (level1, rs_rd F-test p<0.01 after a one-step score screen skipping at predicted p>0.5, ml-levenberg-marquardt 5.1.0)';
+  'sluice-fit/1.2.0 (level1, measured operating table, rs_rd F-test p<0.01 after a one-step score screen skipping at predicted p>0.5, ml-levenberg-marquardt 5.1.0)';
 
 const PARAM_NAMES = ['VTO', 'BETA', 'LAMBDA', 'RS', 'RD'];
 
@@ -81,7 +84,9 @@ interface ModelFit {
  * out (flagged); Levenberg–Marquardt on VTO, BETA, LAMBDA; with `extended` 'auto' (default)
  * also on RS and RD, kept when the extra-sum-of-squares F-test gives p < 0.01, unless the
  * one-step screen (`screenExtendedModel`) predicts p > 0.5, which leaves the RS/RD fit out;
- * 'always' fits and keeps it regardless, 'never' skips it. Any flag sets `needsReview`.
+ * 'always' fits and keeps it regardless, 'never' skips it. Any flag but an advisory one sets
+ * `needsReview`. The result also carries the measurements in compact form for operating-point
+ * figures (`operatingTable`) and the model's VGS against the measured one (`modelAgreement`).
  */
 export function fitCurveFamily(family: CurveFamily, options: FitOptions): FitResult {
   const curves = prepareCurves(family, options.excludedPoints);
@@ -276,6 +281,11 @@ function assemble(
   if (bounded.length > 0) flags.push(parameterAtBoundFlag(bounded));
   if (!solution.converged) flags.push(noConvergenceFlag(solution.iterations));
 
+  const operatingTable = buildOperatingTable(curves, params.vtoV);
+  const modelAgreement = compareModelWithMeasurements(operatingTable, params, options.vdsTestV);
+  if (modelAgreement?.flagged) flags.push(modelDisagreesFlag(modelAgreement));
+  const modelVgsSigmaV = Math.max(modelAgreement?.maxDisagreementV ?? 0, se(0));
+
   return {
     status: 'fitted',
     model: fit.model,
@@ -297,7 +307,10 @@ function assemble(
     },
     extendedTest,
     flags,
-    needsReview: flags.length > 0,
+    needsReview: flags.some((f) => !f.advisory),
     temperatureC,
+    modelAgreement,
+    modelVgsSigmaV,
+    operatingTable,
   };
 }

@@ -1,4 +1,5 @@
 import type { FitFlag } from './definitions.ts';
+import type { ModelAgreement } from '../operating-point/model-agreement.ts';
 import { fitLine } from './line-fit.ts';
 import type { PreparedCurve } from './prepared-curves.ts';
 
@@ -191,5 +192,23 @@ export function notFittableFlag(conducting: number): FitFlag {
     message:
       `No fit was possible: only ${conducting} curve(s) show a saturation current, and at least 2 are needed. ` +
       'Check the channel type, the VGS steps and the current range of the sweep.',
+  };
+}
+
+/**
+ * Advisory: the level-1 model places VGS away from where the measurements put it (see
+ * `compareModelWithMeasurements`). The part is accepted as usual; its operating-point figures
+ * come from the measurements, and its `.model` card is marked as an approximation.
+ */
+export function modelDisagreesFlag(a: ModelAgreement): FitFlag {
+  const worst = a.points.reduce((w, p) => (Math.abs(p.vgsModelV - p.vgsMeasuredV) > Math.abs(w.vgsModelV - w.vgsMeasuredV) ? p : w));
+  const mv = (v: number) => `${(v * 1e3).toFixed(1)} mV`;
+  return {
+    code: 'model_disagrees',
+    advisory: true,
+    message:
+      `The level-1 model puts VGS ${mv(Math.abs(worst.vgsModelV - worst.vgsMeasuredV))} away from the measured value ` +
+      `at ${Math.round(worst.fraction * 100)} % of IDSS (${a.vdsTestV} V), more than the ${mv(a.thresholdV)} allowed: ` +
+      `this part is not square law. Matching and estimates use its measurements; its .model card is an approximation.`,
   };
 }

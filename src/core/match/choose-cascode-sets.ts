@@ -1,4 +1,4 @@
-import type { JfetParams } from '../jfet-model';
+import type { PartBasis } from '../operating-point/part-operating-figures';
 import { evaluateAtOperatingPoint } from './evaluate-at-operating-point';
 import type { MatchTolerances, OperatingFigures } from './match-types';
 import { measureSetMismatch, meetsMatchTolerances, setCostFromMismatch } from './set-mismatch';
@@ -6,7 +6,9 @@ import { packDisjointSets, type CandidateSet, type PackingLimits } from './pack-
 
 /** Usable parts for a cascode request: model, figures as an upper (at idA, vdsV), lot code. */
 export interface CascodeStock {
-  params: readonly JfetParams[];
+  parts: readonly PartBasis[];
+  /** Compare temperature (°C) for `partOperatingFigures`. */
+  compareAtC?: number;
   upper: readonly OperatingFigures[];
   lotCode: Int32Array;
 }
@@ -69,7 +71,7 @@ export function chooseCascodeSets(
     if (l === u || stock.lotCode[l] !== stock.lotCode[u]) return null;
     const a = aOf(u);
     if (!(a > 0)) return null;
-    const e = evaluateAtOperatingPoint(stock.params[l]!, { kind: 'current', idA, vdsV: a });
+    const e = evaluateAtOperatingPoint(stock.parts[l]!, { kind: 'current', idA, vdsV: a }, stock.compareAtC);
     if (!e.usable) return null;
     const headroomV = a - e.figures.vdsSatV;
     return headroomV >= tol.cascodeMarginV ? { lower: e.figures, headroomV } : null;
@@ -149,8 +151,8 @@ export function chooseCascodeSets(
   // matched_cascode_pairs, large stock.
   const aSorted = Float64Array.from(stock.upper, (f) => -f.vgsV).sort();
   const nominalVdsV = Math.max(aSorted[n >> 1]!, 1e-3);
-  const nominal = stock.params.map((p) =>
-    evaluateAtOperatingPoint(p, { kind: 'current', idA, vdsV: nominalVdsV }),
+  const nominal = stock.parts.map((p) =>
+    evaluateAtOperatingPoint(p, { kind: 'current', idA, vdsV: nominalVdsV }, stock.compareAtC),
   );
   const byVgs = [...Array(n).keys()]
     .filter((i) => nominal[i]!.usable)
@@ -263,11 +265,11 @@ function bestMatchedCascodes(
  * point of a = VDS(sat)(at VDS = a) + margin (VDS(sat) falls slowly as VDS rises through λ).
  */
 function requiredHeadroom(stock: CascodeStock, idA: number, marginV: number): Float64Array {
-  return Float64Array.from(stock.params, (p) => {
-    let a = Math.max(-p.vtoV, 1e-3);
+  return Float64Array.from(stock.parts, (p) => {
+    let a = Math.max(-p.params.vtoV, 1e-3);
     for (let it = 0; it < 6; it++) {
-      const e = evaluateAtOperatingPoint(p, { kind: 'current', idA, vdsV: a });
-      const sat = e.usable ? e.figures.vdsSatV : -p.vtoV;
+      const e = evaluateAtOperatingPoint(p, { kind: 'current', idA, vdsV: a }, stock.compareAtC);
+      const sat = e.usable ? e.figures.vdsSatV : -p.params.vtoV;
       a = Math.max(sat + marginV, 1e-3);
     }
     return a;

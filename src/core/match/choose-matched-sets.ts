@@ -2,6 +2,7 @@ import {
   allocateFigureArrays,
   evaluateIntoArrays,
   figuresAt,
+  firstSlots,
   type FigureArrays,
 } from './evaluate-at-operating-point';
 import { chooseCascodeSets, type CascodeMember } from './choose-cascode-sets';
@@ -98,7 +99,7 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
         unusable.push({ id: candidate.id, code: 'no_lot', reason: 'same-lot sets asked for, and this part has no lot' });
         continue;
       }
-      const bad = evaluateIntoArrays(candidate.params, op, all, m);
+      const bad = evaluateIntoArrays(candidate, op, all, m, input.temperatureC);
       if (bad) {
         unusable.push({ id: candidate.id, code: bad.code, reason: bad.reason });
         continue;
@@ -110,13 +111,7 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
       }
       candidateOf[m++] = i;
     }
-    figs = {
-      idA: all.idA.subarray(0, m),
-      vgsV: all.vgsV.subarray(0, m),
-      gmS: all.gmS.subarray(0, m),
-      idssA: all.idssA.subarray(0, m),
-      vdsSatV: all.vdsSatV.subarray(0, m),
-    };
+    figs = firstSlots(all, m);
     lotCode = lotAll.subarray(0, m);
   };
   const candidateAt = (u: number) => input.candidates[candidateOf[u]!]!;
@@ -125,7 +120,8 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
     if (cascodeShape) {
       const r = chooseCascodeSets(
         {
-          params: Array.from({ length: m }, (_, u) => candidateAt(u).params),
+          parts: Array.from({ length: m }, (_, u) => candidateAt(u)),
+          compareAtC: input.temperatureC,
           upper: Array.from({ length: m }, (_, u) => figuresAt(figs, u, op.vdsV)),
           lotCode,
         },
@@ -150,7 +146,7 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
       };
     }
     const r = chooseSymmetricSets(
-      { vgsV: figs.vgsV, gmS: figs.gmS, idssA: figs.idssA, lotCode },
+      { vgsV: figs.vgsV, gmS: figs.gmS, idssA: figs.idssA, lotCode, vgsSigmaV: figs.vgsSigmaV },
       shape === 'pair' ? 2 : 4,
       want,
       t,
@@ -181,7 +177,7 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
     const matched = s.members.filter((m) => shape !== 'matched_cascode_pairs' || m.role === 'lower');
     const mismatch =
       shape === 'cascode_pair'
-        ? { dvgsV: 0, gmMismatch: 0, idssMismatch: 0 }
+        ? { dvgsV: 0, dvgsSigmaV: 0, dvgsGuardedV: 0, gmMismatch: 0, idssMismatch: 0 }
         : measureSetMismatch(matched.map((m) => m.figures));
     const costs = setCostFromMismatch(mismatch, tol);
     const parts: MatchedPart[] = s.members.map((m) => {
@@ -190,7 +186,8 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
       if (shape === 'matched_cascode_pairs' && m.cascodeIndex !== undefined) part.cascodeIndex = m.cascodeIndex;
       return part;
     });
-    const set: MatchedSet = { parts, ...mismatch, costs };
+    const { dvgsGuardedV: _guarded, ...shown } = mismatch;
+    const set: MatchedSet = { parts, ...shown, costs };
     if (s.headroomV !== undefined) set.cascodeHeadroomV = s.headroomV;
     return set;
   });

@@ -1,4 +1,5 @@
 import type { MatchTolerances } from './match-types';
+import { DVGS_GUARD_SIGMAS } from './set-mismatch';
 import { packDisjointSets, type CandidateSet, type PackingLimits } from './pack-disjoint-sets';
 
 /** Figures of the usable parts, one entry per part (typed arrays for large stocks). */
@@ -8,6 +9,11 @@ export interface SymmetricStock {
   idssA: Float64Array;
   /** Parts may share a set only when their codes are equal (all 0 when lots don't matter). */
   lotCode: Int32Array;
+  /**
+   * One standard deviation of each VGS (V). A set's ΔVGS counts as ΔVGS + 2·σ(ΔVGS), σ of its
+   * highest and lowest members combined (`DVGS_GUARD_SIGMAS`); absent means all 0.
+   */
+  vgsSigmaV?: Float64Array;
 }
 
 export interface SymmetricSelection {
@@ -88,14 +94,18 @@ export function chooseSymmetricSets(
   const G = new Float64Array(n);
   const I = new Float64Array(n);
   const L = new Int32Array(n);
+  const S = new Float64Array(n);
   for (let r = 0; r < n; r++) {
     const o = order[r]!;
+    S[r] = stock.vgsSigmaV ? stock.vgsSigmaV[o]! : 0;
     K[r] = key[o]!;
     V[r] = stock.vgsV[o]!;
     G[r] = stock.gmS[o]!;
     I[r] = stock.idssA[o]!;
     L[r] = stock.lotCode[o]!;
   }
+  // The guard only ever adds to ΔVGS, so a set of cost ≤ θ still lies inside the VGS window.
+  const guard = matchVgs ? DVGS_GUARD_SIGMAS : 0;
   const term = (m: number, t: number) => (t === Infinity || m <= 0 ? 0 : t > 0 ? m / t : Infinity);
   const { maxGmMismatch: maxG, maxIdssMismatch: maxI } = tol;
 
@@ -114,7 +124,17 @@ export function chooseSymmetricSets(
       if (i < iMin) iMin = i;
       if (i > iMax) iMax = i;
     }
-    const dv = vMax - vMin, dg = 1 - gMin / gMax, di = 1 - iMin / iMax;
+    let dv = vMax - vMin;
+    if (guard > 0) {
+      // The guarded ΔVGS of a set is that of its worst pair, so a set qualifies exactly when every pair in it does.
+      dv = 0;
+      for (let a = 0; a < m.length; a++)
+        for (let b = a + 1; b < m.length; b++) {
+          const x = m[a]!, y = m[b]!;
+          dv = Math.max(dv, Math.abs(V[x]! - V[y]!) + guard * Math.hypot(S[x]!, S[y]!));
+        }
+    }
+    const dg = 1 - gMin / gMax, di = 1 - iMin / iMax;
     if (!(dv <= maxDvgsV && dg <= maxG && di <= maxI)) return Infinity;
     return term(dv, maxDvgsV) + term(dg, maxG) + term(di, maxI);
   };
@@ -122,7 +142,7 @@ export function chooseSymmetricSets(
   /** Cost of the pair at sorted positions i < j, or Infinity when it is not valid. */
   const pairCost = (i: number, j: number): number => {
     if (L[i] !== L[j]) return Infinity;
-    const dv = Math.abs(V[j]! - V[i]!);
+    const dv = Math.abs(V[j]! - V[i]!) + guard * Math.hypot(S[i]!, S[j]!);
     const g0 = G[i]!, g1 = G[j]!, i0 = I[i]!, i1 = I[j]!;
     const dg = g0 < g1 ? 1 - g0 / g1 : 1 - g1 / g0;
     const di = i0 < i1 ? 1 - i0 / i1 : 1 - i1 / i0;

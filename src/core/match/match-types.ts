@@ -1,4 +1,4 @@
-import type { JfetParams } from '../jfet-model';
+import type { FigureSource, PartBasis } from '../operating-point/part-operating-figures';
 
 /**
  * Where the designer runs the parts. All values N-equivalent and SI (A, V, Ω); a P-channel
@@ -32,13 +32,12 @@ export interface MatchTolerances {
   cascodeMarginV: number;
 }
 
-export interface MatchCandidate {
+/** A part in stock: its serial, lot and bin, and what its figures are computed from. */
+export interface MatchCandidate extends PartBasis {
   /** The part's serial. */
   id: string;
   lotId: string | null;
   binCode: string | null;
-  /** Fitted model, N-equivalent, SI. */
-  params: JfetParams;
 }
 
 export interface MatchInput {
@@ -50,6 +49,8 @@ export interface MatchInput {
   tolerances: MatchTolerances;
   /** `sameLot`: every part of a set shares one (non-null) lot. */
   options?: { sameLot?: boolean };
+  /** Parts are compared at this temperature (°C; 25 when absent). */
+  temperatureC?: number;
 }
 
 /** Figures of one part at the operating point it actually sees in its set. */
@@ -58,10 +59,16 @@ export interface OperatingFigures {
   vdsV: number;
   vgsV: number;
   gmS: number;
-  /** Model IDSS (`idssA` of jfet-model) at this part's VDS. */
+  gosS: number;
+  /** IDSS at this part's VDS (measured where the sweep reaches it). */
   idssA: number;
   /** VGS − VTO. */
   vdsSatV: number;
+  /** One standard deviation of `vgsV` (V); 0 when not known. */
+  vgsSigmaV: number;
+  source: FigureSource;
+  /** VGS correction applied to bring the part to the compare temperature (V). */
+  temperatureShiftV: number;
 }
 
 export type PartEvaluation =
@@ -106,6 +113,8 @@ export interface MatchedSet {
    * 0 for a lone cascode pair, where nothing is matched.
    */
   dvgsV: number;
+  /** One standard deviation of `dvgsV`: the highest and lowest members' σ combined (V). */
+  dvgsSigmaV: number;
   gmMismatch: number;
   idssMismatch: number;
   costs: SetCost;

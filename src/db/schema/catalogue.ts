@@ -16,6 +16,13 @@ export const deviceType = pgTable('device_type', {
   /** Pinch-off limits in datasheet sign (negative for N, positive for P). */
   vpMinV: doublePrecision('vp_min_v'),
   vpMaxV: doublePrecision('vp_max_v'),
+  /**
+   * Temperature coefficients for comparing parts measured at different temperatures, in
+   * ngspice's JFET forms: VTOTC (V/°C, N-equivalent VTO) and BETATCE (%/°C). Defaults: |VP|
+   * +2.2 mV/°C, BETA −0.7 %/°C (from memory, application-note figures).
+   */
+  vtotcVPerC: doublePrecision('vtotc_v_per_c').notNull().default(-0.0022),
+  betatcePctPerC: doublePrecision('betatce_pct_per_c').notNull().default(-0.7),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -145,6 +145,10 @@ export const fit = pgTable(
     rmsRel: doublePrecision('rms_rel').notNull(),
     /** Standard errors, metrics, derived figures with errors, excluded points: the full result. */
     detail: jsonb('detail').notNull(),
+    /** The measurements in compact form (`packOperatingTable`): operating-point figures read from them. */
+    operatingTable: doublePrecision('operating_table').array(),
+    /** One standard deviation of a VGS taken from the model outside the measured range (V). */
+    modelVgsSigmaV: doublePrecision('model_vgs_sigma_v'),
     flags: text('flags').array().notNull().default([]),
     review: fitReviewEnum('review').notNull(),
     reviewedBy: text('reviewed_by').references(() => user.id),

@@ -1,0 +1,283 @@
+import type { PreparedCurve } from '../fit/prepared-curves';
+
+/**
+ * What a part's own measurements say about it in saturation, kept compactly so that any
+ * operating point inside the measured range can be read without the raw curves.
+ *
+ * Each gate step's saturated points (VDS ≥ 1.3·(VGS − VTO) + 0.2 V, points the fit kept) are
+ * smoothed by a least-squares polynomial in VDS — a line, or a quadratic where the step has at
+ * least 12 such points over 2 V or more — with its covariance from the residual scatter. A
+ * point between gate steps is then read by interpolating across the steps at the requested VDS
+ * (`readMeasuredFigures`). All values N-equivalent and SI, gate steps in ascending VGS.
+ */
+export interface OperatingTable {
+  /** VDS the polynomials are centred on (V): ID = c0 + c1·x + c2·x², x = VDS − vdsRefV. */
+  vdsRefV: number;
+  vgsV: Float64Array;
+  /** The saturated VDS range each step was measured over (V): readings stay inside it. */
+  vdsLoV: Float64Array;
+  vdsHiV: Float64Array;
+  c0: Float64Array;
+  c1: Float64Array;
+  c2: Float64Array;
+  /** Per step the covariance of (c0, c1, c2): v00, v01, v02, v11, v12, v22. */
+  cov: Float64Array;
+  /**
+   * Per step the local power-law exponent m of ID ∝ (VGS − V0)^m through this step and its two
+   * neighbours (ID^(1/m) on one straight line), read at the table's reference VDS; NaN where
+   * it cannot be told (an end step, or a neighbour near cut-off).
+   */
+  exponent: Float64Array;
+}
+
+export const TABLE_FORMAT_VERSION = 1;
+const FLOATS_PER_STEP = 13;
+const HEADER_FLOATS = 3;
+/** Saturation onset used for the table: VDS ≥ KNEE_FACTOR·(VGS − VTO) + KNEE_OFFSET_V. */
+const KNEE_FACTOR = 1.3;
+const KNEE_OFFSET_V = 0.2;
+const MIN_POINTS_LINE = 3;
+const MIN_POINTS_QUADRATIC = 12;
+const MIN_SPAN_QUADRATIC_V = 2;
+
+/**
+ * The operating table of one fitted sweep: `curves` as the fit saw them (reviewer and flag
+ * exclusions applied), `vtoV` the fitted VTO, used only to tell where saturation starts.
+ * Steps with fewer than 3 saturated points are left out (a curve cut short by the
+ * instrument's power limit keeps the points it has). Null when no step is left.
+ */
+export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: number): OperatingTable | null {
+  interface Step { vgs: number; lo: number; hi: number; c: number[]; cov: number[] }
+  const steps: Step[] = [];
+  let vdsSum = 0;
+  let vdsCount = 0;
+  const picked: { curve: PreparedCurve; idx: number[] }[] = [];
+  for (const curve of curves) {
+    const knee = KNEE_FACTOR * Math.max(curve.vgsV - vtoV, 0) + KNEE_OFFSET_V;
+    const idx: number[] = [];
+    for (let k = 0; k < curve.vdsV.length; k++) {
+      if (curve.included[k] && curve.vdsV[k] >= knee) idx.push(k);
+    }
+    if (idx.length < MIN_POINTS_LINE) continue;
+    picked.push({ curve, idx });
+    for (const k of idx) {
+      vdsSum += curve.vdsV[k];
+      vdsCount++;
+    }
+  }
+  if (picked.length === 0) return null;
+  const ref = vdsSum / vdsCount;
+  const offsetA = zeroCurrentOffsetA(curves);
+  for (const { curve, idx } of picked) {
+    const lo = curve.vdsV[idx[0]];
+    const hi = curve.vdsV[idx[idx.length - 1]];
+    let fit = idx.length >= MIN_POINTS_QUADRATIC && hi - lo >= MIN_SPAN_QUADRATIC_V ? fitPolynomial(curve, idx, ref, 2, offsetA) : null;
+    // Keep the bend only where the data show one (|c2| over 3 standard errors): a line reads
+    // the current with less noise.
+    if (!fit || !(Math.abs(fit.c[2]) > 3 * Math.sqrt(fit.cov[5]))) fit = fitPolynomial(curve, idx, ref, 1, offsetA);
+    if (!fit) continue;
+    steps.push({ vgs: curve.vgsV, lo, hi, c: fit.c, cov: fit.cov });
+  }
+  if (steps.length === 0) return null;
+  steps.sort((a, b) => a.vgs - b.vgs);
+  // Two curves at one gate step (a retaken curve): keep the one measured over the wider range.
+  const unique: Step[] = [];
+  for (const s of steps) {
+    const last = unique[unique.length - 1];
+    if (last && Math.abs(last.vgs - s.vgs) < 1e-9) {
+      if (s.hi - s.lo > last.hi - last.lo) unique[unique.length - 1] = s;
+    } else unique.push(s);
+  }
+  const n = unique.length;
+  const t: OperatingTable = {
+    vdsRefV: ref,
+    vgsV: new Float64Array(n),
+    vdsLoV: new Float64Array(n),
+    vdsHiV: new Float64Array(n),
+    c0: new Float64Array(n),
+    c1: new Float64Array(n),
+    c2: new Float64Array(n),
+    cov: new Float64Array(6 * n),
+    exponent: new Float64Array(n).fill(NaN),
+  };
+  unique.forEach((s, i) => {
+    t.vgsV[i] = s.vgs;
+    t.vdsLoV[i] = s.lo;
+    t.vdsHiV[i] = s.hi;
+    t.c0[i] = s.c[0];
+    t.c1[i] = s.c[1];
+    t.c2[i] = s.c[2];
+    for (let j = 0; j < 6; j++) t.cov[6 * i + j] = s.cov[j];
+  });
+  fillLocalExponents(t);
+  return t;
+}
+
+/** Below this share of the next step's current a step is too near cut-off to shape a power law. */
+const EXPONENT_MIN_SHARE = 0.03;
+const EXPONENT_RANGE: [number, number] = [1.2, 5];
+
+/**
+ * Local exponents (see `OperatingTable.exponent`) from the steps' currents at the reference
+ * VDS: for three neighbouring steps, the m in EXPONENT_RANGE that puts ID^(1/m) on a straight
+ * line (bisection; the bend of ID^(1/m) falls as m grows). Clamped at the range's ends.
+ */
+function fillLocalExponents(t: OperatingTable): void {
+  const n = t.vgsV.length;
+  // At the reference VDS each polynomial is its constant term.
+  const current = (k: number) => (t.vdsLoV[k] - 1e-6 <= t.vdsRefV && t.vdsRefV <= t.vdsHiV[k] + 1e-6 ? t.c0[k] : NaN);
+  for (let k = 1; k < n - 1; k++) {
+    const i0 = current(k - 1);
+    const i1 = current(k);
+    const i2 = current(k + 1);
+    if (!(i0 > EXPONENT_MIN_SHARE * i2 && i1 > i0 && i2 > i1)) continue;
+    const h0 = t.vgsV[k] - t.vgsV[k - 1];
+    const h1 = t.vgsV[k + 1] - t.vgsV[k];
+    const bend = (m: number) => {
+      const y0 = Math.pow(i0, 1 / m);
+      const y1 = Math.pow(i1, 1 / m);
+      const y2 = Math.pow(i2, 1 / m);
+      return (y2 - y1) / h1 - (y1 - y0) / h0;
+    };
+    let [lo, hi] = EXPONENT_RANGE;
+    if (bend(lo) <= 0) {
+      t.exponent[k] = lo;
+      continue;
+    }
+    if (bend(hi) >= 0) {
+      t.exponent[k] = hi;
+      continue;
+    }
+    for (let it = 0; it < 50; it++) {
+      const mid = 0.5 * (lo + hi);
+      if (bend(mid) > 0) lo = mid;
+      else hi = mid;
+    }
+    t.exponent[k] = 0.5 * (lo + hi);
+  }
+}
+
+/**
+ * The instrument's current offset: the median reading at VDS = 0 over the gate steps that
+ * do not forward-bias the gate (VGS ≤ 0, N-equivalent), where a JFET's drain current is
+ * zero. 0 when the sweep has no such points. Subtracted before the steps are smoothed.
+ */
+export function zeroCurrentOffsetA(curves: readonly PreparedCurve[]): number {
+  const at0: number[] = [];
+  for (const c of curves) {
+    if (c.vgsV > 1e-9) continue;
+    for (let k = 0; k < c.vdsV.length; k++) if (c.included[k] && Math.abs(c.vdsV[k]) < 1e-9) at0.push(c.idA[k]);
+  }
+  if (at0.length === 0) return 0;
+  at0.sort((a, b) => a - b);
+  const mid = at0.length >> 1;
+  return at0.length % 2 ? at0[mid] : 0.5 * (at0[mid - 1] + at0[mid]);
+}
+
+/**
+ * Ordinary least squares of ID − offset on 1, x, x² (x = VDS − ref) over the points `idx`; the
+ * covariance is s²·(XᵀX)⁻¹ with s² = SSE/(n − p). Degree 1 leaves c2 and its variances 0.
+ */
+function fitPolynomial(curve: PreparedCurve, idx: number[], ref: number, degree: 1 | 2, offsetA: number) {
+  const p = degree + 1;
+  const a = new Float64Array(9);
+  const b = new Float64Array(3);
+  for (const k of idx) {
+    const x = curve.vdsV[k] - ref;
+    const row = [1, x, x * x];
+    for (let i = 0; i < p; i++) {
+      b[i] += row[i] * (curve.idA[k] - offsetA);
+      for (let j = 0; j < p; j++) a[i * 3 + j] += row[i] * row[j];
+    }
+  }
+  const inv = invertSymmetric(a, p);
+  if (!inv) return null;
+  const c = [0, 0, 0];
+  for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) c[i] += inv[i * 3 + j] * b[j];
+  let sse = 0;
+  for (const k of idx) {
+    const x = curve.vdsV[k] - ref;
+    const r = curve.idA[k] - offsetA - (c[0] + c[1] * x + c[2] * x * x);
+    sse += r * r;
+  }
+  const dof = idx.length - p;
+  const s2 = dof > 0 ? sse / dof : 0;
+  const cov = [inv[0] * s2, inv[1] * s2, inv[2] * s2, inv[4] * s2, inv[5] * s2, inv[8] * s2];
+  return { c, cov };
+}
+
+/** Inverse of the leading p × p block of a symmetric 3 × 3 matrix (row-major), or null. */
+function invertSymmetric(a: Float64Array, p: number): Float64Array | null {
+  const out = new Float64Array(9);
+  if (p === 2) {
+    const det = a[0] * a[4] - a[1] * a[3];
+    if (!(Math.abs(det) > 1e-12 * Math.abs(a[0] * a[4]))) return null;
+    out[0] = a[4] / det;
+    out[1] = -a[1] / det;
+    out[3] = -a[3] / det;
+    out[4] = a[0] / det;
+    return out;
+  }
+  const [m00, m01, m02, , m11, m12, , , m22] = a;
+  const c00 = m11 * m22 - m12 * m12;
+  const c01 = m02 * m12 - m01 * m22;
+  const c02 = m01 * m12 - m02 * m11;
+  const det = m00 * c00 + m01 * c01 + m02 * c02;
+  if (!(Math.abs(det) > 1e-12 * Math.abs(m00 * m11 * m22))) return null;
+  out[0] = c00 / det;
+  out[1] = out[3] = c01 / det;
+  out[2] = out[6] = c02 / det;
+  out[4] = (m00 * m22 - m02 * m02) / det;
+  out[5] = out[7] = (m01 * m02 - m00 * m12) / det;
+  out[8] = (m00 * m11 - m01 * m01) / det;
+  return out;
+}
+
+/**
+ * The table as a flat list of numbers, for a float8[] column: [version, step count, vdsRefV,
+ * then per step vgs, lo, hi, c0, c1, c2, v00, v01, v02, v11, v12, v22, exponent], an unknown
+ * exponent written as 0. About 100 bytes per gate step.
+ */
+export function packOperatingTable(t: OperatingTable): number[] {
+  const n = t.vgsV.length;
+  const f: number[] = [TABLE_FORMAT_VERSION, n, t.vdsRefV];
+  for (let i = 0; i < n; i++) {
+    f.push(t.vgsV[i], t.vdsLoV[i], t.vdsHiV[i], t.c0[i], t.c1[i], t.c2[i]);
+    for (let j = 0; j < 6; j++) f.push(t.cov[6 * i + j]);
+    f.push(Number.isNaN(t.exponent[i]) ? 0 : t.exponent[i]);
+  }
+  return f;
+}
+
+/** Reads `packOperatingTable`'s list; null for anything that is not a table of this version. */
+export function unpackOperatingTable(f: readonly (number | null)[] | null | undefined): OperatingTable | null {
+  if (!f || f.length < HEADER_FLOATS) return null;
+  const n = f[1];
+  if (f[0] !== TABLE_FORMAT_VERSION || typeof n !== 'number' || !Number.isInteger(n) || f.length !== HEADER_FLOATS + FLOATS_PER_STEP * n) return null;
+  if (f.some((x) => typeof x !== 'number' || !Number.isFinite(x))) return null;
+  const at = (i: number) => f[i] as number;
+  const t: OperatingTable = {
+    vdsRefV: at(2),
+    vgsV: new Float64Array(n),
+    vdsLoV: new Float64Array(n),
+    vdsHiV: new Float64Array(n),
+    c0: new Float64Array(n),
+    c1: new Float64Array(n),
+    c2: new Float64Array(n),
+    cov: new Float64Array(6 * n),
+    exponent: new Float64Array(n),
+  };
+  for (let i = 0; i < n; i++) {
+    const o = HEADER_FLOATS + FLOATS_PER_STEP * i;
+    t.vgsV[i] = at(o);
+    t.vdsLoV[i] = at(o + 1);
+    t.vdsHiV[i] = at(o + 2);
+    t.c0[i] = at(o + 3);
+    t.c1[i] = at(o + 4);
+    t.c2[i] = at(o + 5);
+    for (let j = 0; j < 6; j++) t.cov[6 * i + j] = at(o + 6 + j);
+    const m = at(o + 12);
+    t.exponent[i] = m > 0 ? m : NaN;
+  }
+  return t;
+}
