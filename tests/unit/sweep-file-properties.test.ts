@@ -4,6 +4,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { intrinsicDrainCurrentA } from '../../src/core/jfet-model';
 import {
+  decodeSweepBytes,
   MIN_CURVES_PER_PART,
   MIN_POINTS_PER_CURVE,
   MIN_POINTS_PER_TRANSFER_CURVE,
@@ -191,6 +192,72 @@ describe('writing a family and reading it back (fast-check)', () => {
             expect(id).toBe(want === 0 ? 0 : want);
           });
         }
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
+
+describe('bytes as uploaded: decodeSweepBytes then parseSweepFile (fast-check)', () => {
+  // Source: the hostile-file contract: binary data, UTF-16 and NUL bytes anywhere give
+  // the parser's own error (code not_text for NUL), never another exception, and no message
+  // carries a control character raw.
+  const validBytes = validTexts.map((t) => new TextEncoder().encode(t));
+
+  function readOrRefuse(bytes: Uint8Array, fileName = 'JX-3.csv'): ParsedSweepFile | SweepFileError {
+    try {
+      return parseSweepFile({ text: decodeSweepBytes(bytes, fileName), fileName, byteLength: bytes.length });
+    } catch (error) {
+      if (error instanceof SweepFileError) return error;
+      throw error;
+    }
+  }
+
+  function expectSafe(result: ParsedSweepFile | SweepFileError) {
+    expectWellFormed(result);
+    // eslint-disable-next-line no-control-regex
+    if (result instanceof SweepFileError) expect(result.message).not.toMatch(/[\u0000-\u001f\u007f]/);
+  }
+
+  it('on random bytes', () => {
+    fc.assert(fc.property(fc.uint8Array({ maxLength: 600 }), (bytes) => expectSafe(readOrRefuse(bytes))), { numRuns: 500 });
+  });
+
+  it('on random text written as UTF-16 (either byte order, with or without a byte-order mark)', () => {
+    fc.assert(
+      fc.property(fc.string({ unit: 'binary', minLength: 1, maxLength: 300 }), fc.boolean(), fc.boolean(), (text, bigEndian, bom) => {
+        const body = Buffer.from((bom ? '\uFEFF' : '') + text, 'utf16le');
+        const result = readOrRefuse(new Uint8Array(bigEndian ? body.swap16() : body));
+        expectSafe(result);
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('refuses every valid file as UTF-16 with not_text', () => {
+    for (const text of validTexts) {
+      for (const bytes of [Buffer.from(text, 'utf16le'), Buffer.from(text, 'utf16le').swap16()]) {
+        const result = readOrRefuse(new Uint8Array(bytes));
+        expect(result).toBeInstanceOf(SweepFileError);
+        expect((result as SweepFileError).code).toBe('not_text');
+      }
+    }
+  });
+
+  it('refuses a NUL byte anywhere in a valid file with not_text', () => {
+    fc.assert(
+      fc.property(fc.nat({ max: validBytes.length - 1 }), fc.array(fc.nat(), { minLength: 1, maxLength: 4 }), (which, places) => {
+        const source = validBytes[which];
+        const bytes = new Uint8Array(source.length + places.length);
+        bytes.set(source);
+        for (const place of places) {
+          const at = place % (source.length + 1);
+          bytes.copyWithin(at + 1, at, bytes.length - 1);
+          bytes[at] = 0;
+        }
+        const result = readOrRefuse(bytes);
+        expect(result).toBeInstanceOf(SweepFileError);
+        expect((result as SweepFileError).code).toBe('not_text');
       }),
       { numRuns: 300 },
     );
