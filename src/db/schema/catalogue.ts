@@ -35,6 +35,8 @@ export const lot = pgTable(
       .notNull()
       .references(() => deviceType.id),
     supplier: text('supplier').notNull().default(''),
+    /** Where the per-lot intake summary is mailed (the supplier's quality contact); '' when none. */
+    supplierEmail: text('supplier_email').notNull().default(''),
     notes: text('notes').notNull().default(''),
     receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
     createdBy: text('created_by').references(() => user.id),

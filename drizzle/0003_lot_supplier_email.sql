@@ -1,0 +1,1 @@
+ALTER TABLE "lot" ADD COLUMN "supplier_email" text DEFAULT '' NOT NULL;
