@@ -1,10 +1,12 @@
 import type { FittedResult } from '../../../../core/fit/definitions';
 import type { Channel } from '../../../../core/jfet-model';
+import { packOperatingTable } from '../../../../core/operating-point/operating-table';
 
 /**
  * The columns of a fit row from the fitter's result. Parameters stay N-equivalent (VTO
  * negative for NJF and PJF alike); VP is stored in datasheet sign (negative for N, positive
- * for P). The full result, standard errors included, goes into `detail`.
+ * for P). The full result, standard errors included, goes into `detail`; the measurements'
+ * operating table into its own column (packed).
  */
 export function fitColumns(
   result: FittedResult,
@@ -13,6 +15,7 @@ export function fitColumns(
   review: 'auto_accepted' | 'needs_review',
 ) {
   const { parameters: p, derived: d, quality: q } = result;
+  const { operatingTable, ...detail } = result;
   return {
     sweepId: ids.sweepId,
     partId: ids.partId,
@@ -30,7 +33,9 @@ export function fitColumns(
     gosS: d.gosS.value,
     rdsOnOhm: d.rdsOnOhm.value,
     rmsRel: q.rmsResidualRelative,
-    detail: result,
+    detail,
+    operatingTable: operatingTable ? packOperatingTable(operatingTable) : null,
+    modelVgsSigmaV: Number.isFinite(result.modelVgsSigmaV) ? result.modelVgsSigmaV : null,
     flags: result.flags.map((f) => f.code),
     review,
   };
