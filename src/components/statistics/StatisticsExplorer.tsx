@@ -219,7 +219,7 @@ function YieldAndBins({ g, query }: { g: TypeStatistics; query: string }) {
   const maxShare = Math.max(0.0001, ...g.bins.map((b) => b.share ?? 0));
   const grid = useMemo(() => binShareGrid(g.bins), [g.bins]);
   return (
-    <div className={grid ? 'grid gap-4' : 'grid gap-4 lg:grid-cols-2'}>
+    <div className={grid ? 'grid grid-cols-1 gap-4' : 'grid grid-cols-1 gap-4 lg:grid-cols-2'}>
       <section className="card" aria-label="Yield">
         <div className="flex flex-wrap items-baseline justify-between gap-2 mb-2">
           <h3>Yield</h3>
@@ -298,7 +298,7 @@ function TrendSection({ g, query, fileStem }: { g: TypeStatistics; query: string
         fileName={`${fileStem}-trend-${figure}`}
         height={280}
       >
-        {(w) => (lots.filter((l) => l.mean !== null).length === 0 ? <Empty>No lot with fitted parts to plot.</Empty> : <TrendChart width={w} height={280} figure={figure} lots={lots} />)}
+        {(w) => (lots.filter((l) => l.mean !== null).length === 0 ? <Empty>No lot with fitted parts to plot.</Empty> : <TrendChart width={w} height={280} figure={figure} lots={lots} slopePerDay={drift.enough ? drift.per_day : null} />)}
       </ChartCard>
       <div className="card overflow-hidden flex flex-col">
         <div className="flex flex-wrap items-center justify-between gap-2 mb-2">

@@ -1,4 +1,5 @@
 import { Axis, BarSeries, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
+import { formatDate } from '../../core/units/format-date';
 import { CHART_COLORS, chartTheme } from './chart-kit';
 
 /** Display scale of each figure: SI value × factor, shown in `unit`. */
@@ -218,17 +219,31 @@ export function TrendChart({
   height,
   figure,
   lots,
+  slopePerDay,
 }: {
   width: number;
   height: number;
   figure: DisplayKey;
   lots: { lot_code: string; received_at: string; n: number; selected: boolean; mean: number | null }[];
+  /** Least-squares slope in SI per day; null draws the lot means alone. */
+  slopePerDay: number | null;
 }) {
   const d = DISPLAY[figure];
   const data: TrendPoint[] = lots
     .filter((l) => l.mean !== null)
     .map((l) => ({ t: new Date(l.received_at), mean: l.mean! * d.factor, code: l.lot_code, n: l.n, selected: l.selected }));
-  const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: '2-digit', timeZone: 'UTC' });
+  const dateFmt = { format: (d: Date) => formatDate(d) };
+  // The least-squares line goes through the centroid of the lot means; drawn only when the
+  // server found enough lots over a long enough span for a trend.
+  const line: TrendPoint[] = [];
+  if (slopePerDay !== null && data.length >= 2) {
+    const t0 = Math.min(...data.map((p) => p.t.getTime()));
+    const days = data.map((p) => (p.t.getTime() - t0) / 86_400_000);
+    const xMean = days.reduce((a, b) => a + b, 0) / days.length;
+    const yMean = data.reduce((a, p) => a + p.mean, 0) / data.length;
+    const at = (day: number): TrendPoint => ({ t: new Date(t0 + day * 86_400_000), mean: yMean + slopePerDay * d.factor * (day - xMean), code: '', n: 0, selected: false });
+    line.push(at(Math.min(...days)), at(Math.max(...days)));
+  }
   // Room either side so the first and last lots are not drawn on the axes.
   const times = data.map((p) => p.t.getTime());
   const span = times.length ? Math.max(...times) - Math.min(...times) : 0;
@@ -245,7 +260,7 @@ export function TrendChart({
       yScale={{ type: 'linear', nice: true, zero: false }}
     >
       <Grid numTicks={4} />
-      <LineSeries<any, any, TrendPoint> dataKey="trend" data={data} xAccessor={(p) => p.t} yAccessor={(p) => p.mean} stroke={CHART_COLORS.line} enableEvents={false} />
+      {line.length > 0 && <LineSeries<any, any, TrendPoint> dataKey="trend" data={line} xAccessor={(p) => p.t} yAccessor={(p) => p.mean} stroke={CHART_COLORS.line} enableEvents={false} />}
       <GlyphSeries<any, any, TrendPoint>
         dataKey="lots"
         data={data}

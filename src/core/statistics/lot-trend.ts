@@ -41,7 +41,8 @@ export interface LotTrend {
 const DAY_MS = 86_400_000;
 
 function describeSpan(days: number): string {
-  if (days < 1 / 24) return `${Math.round(days * 1440)} minutes`;
+  if (days < 1 / 1440) return 'less than a minute';
+  if (days < 1 / 24) return `${Math.round(days * 1440)} minute${Math.round(days * 1440) === 1 ? '' : 's'}`;
   if (days < 2) return `${Math.round(days * 24)} hours`;
   return `${Math.round(days)} days`;
 }

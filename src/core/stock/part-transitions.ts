@@ -23,7 +23,9 @@ const ALLOWED: Record<PartStatus, readonly PartStatus[]> = {
   retest: ['measured', 'needs_review', 'accepted', 'scrapped', 'quarantined'],
   accepted: ['in_stock', 'measured', 'needs_review', 'retest', 'scrapped', 'quarantined'],
   in_stock: ['reserved', 'issued', 'scrapped', 'quarantined', 'in_stock', 'measured', 'needs_review'],
-  reserved: ['in_stock', 'issued', 'quarantined'],
+  // A defect found while reserved: the part leaves its set (the reservation keeps it on record
+  // and its designer gets a mail); it is no longer picked.
+  reserved: ['in_stock', 'issued', 'quarantined', 'needs_review', 'retest', 'scrapped'],
   issued: ['returned'],
   returned: ['in_stock', 'measured', 'needs_review', 'scrapped', 'quarantined'],
   scrapped: [],

@@ -6,6 +6,7 @@ import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
 import { fitColumns } from '../fits/fit-columns';
 import { changePartStatuses } from '../parts/change-status';
+import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { toCurveFamily, toFlatIndices, type StoredCurve } from '../sweeps/stored-curves';
 import { loadReviewTarget } from './load-target';
 import { RefitInput } from './schemas';
@@ -18,7 +19,7 @@ import { RefitInput } from './schemas';
 export async function refitWithExclusions({ actor, input }: { actor: Actor | null; input: unknown }) {
   requirePermission(actor, 'fits:review');
   const data = RefitInput.parse(input);
-  return getDb().transaction(async (tx) => {
+  const { out, mails } = await getDb().transaction(async (tx) => {
     const { part, type, fit, sweep } = await loadReviewTarget(tx, data.serial, data.fit_id);
     const curves = sweep.curves as StoredCurve[];
     const unique = [...new Map(data.excluded_points.map((p) => [`${p[0]}:${p[1]}`, p] as const)).values()];
@@ -53,6 +54,9 @@ export async function refitWithExclusions({ actor, input }: { actor: Actor | nul
     if (part.status !== 'needs_review') {
       await changePartStatuses(tx, actor, [{ partId: part.id, to: 'needs_review' }], { action: 'part.refit', reason: 'refitted on review' });
     }
-    return { serial: part.serial, fit_id: created.id, flags: created.flags, rms_rel: created.rmsRel, idss_a: created.idssA, vp_v: created.vpV };
+    const mails = await partChangeMails(tx, [part.id], { what: 'refitted', by: actor.label, reason: data.note ?? null });
+    return { out: { serial: part.serial, fit_id: created.id, flags: created.flags, rms_rel: created.rmsRel, idss_a: created.idssA, vp_v: created.vpV }, mails };
   });
+  await sendPartChangeMails(mails);
+  return out;
 }

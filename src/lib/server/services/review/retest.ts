@@ -3,6 +3,7 @@ import { getDb, schema } from '../../../../db/client';
 import { writeAudit } from '../../audit';
 import { requirePermission, type Actor } from '../../identity';
 import { changePartStatuses } from '../parts/change-status';
+import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { loadReviewTarget } from './load-target';
 import { ReviewTarget } from './schemas';
 
@@ -10,7 +11,7 @@ import { ReviewTarget } from './schemas';
 export async function markForRetest({ actor, input }: { actor: Actor | null; input: unknown }) {
   requirePermission(actor, 'fits:review');
   const data = ReviewTarget.parse(input);
-  return getDb().transaction(async (tx) => {
+  const { out, mails } = await getDb().transaction(async (tx) => {
     const { part, fit } = await loadReviewTarget(tx, data.serial, data.fit_id);
     await tx
       .update(schema.fit)
@@ -18,6 +19,9 @@ export async function markForRetest({ actor, input }: { actor: Actor | null; inp
       .where(eq(schema.fit.id, fit.id));
     await writeAudit(tx, actor, { action: 'fit.retest', subjectType: 'part', subjectId: part.serial, before: { fit_id: fit.id, review: fit.review }, after: { review: 'retest' }, reason: data.note });
     await changePartStatuses(tx, actor, [{ partId: part.id, to: 'retest' }], { action: 'part.review_retest', reason: data.note ?? 'marked for retest on review' });
-    return { serial: part.serial, status: 'retest' as const, fit_id: fit.id };
+    const mails = await partChangeMails(tx, [part.id], { what: 'marked for retest', by: actor.label, reason: data.note ?? null });
+    return { out: { serial: part.serial, status: 'retest' as const, fit_id: fit.id }, mails };
   });
+  await sendPartChangeMails(mails);
+  return out;
 }

@@ -2,18 +2,20 @@ import { getDb } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
+import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { lockPartsBySerial, stockActionResult, type StockActionResult } from './batch';
 import { ScrapInput } from './schemas';
 
 /**
  * Scraps parts with a reason, in one transaction; the status service refuses parts that may
- * not be scrapped (reserved, issued, already scrapped). Bins that drop below their threshold
- * alert once.
+ * not be scrapped (issued, already scrapped). A reserved part may be scrapped (a defect found
+ * on the shelf): the designer holding it gets a mail with the set's figures. Bins that drop
+ * below their threshold alert once.
  */
 export async function scrapParts({ actor, input }: { actor: Actor | null; input: unknown }): Promise<StockActionResult> {
   requirePermission(actor, 'stock:scrap');
   const data = ScrapInput.parse(input);
-  const { result, alerts } = await getDb().transaction(async (tx) => {
+  const { result, alerts, mails } = await getDb().transaction(async (tx) => {
     const parts = await lockPartsBySerial(tx, data.serials);
     const changed = await changePartStatuses(
       tx,
@@ -23,8 +25,10 @@ export async function scrapParts({ actor, input }: { actor: Actor | null; input:
     );
     const alerts = await checkLowStock(tx, parts.map((p) => p.binId));
     const result = await stockActionResult(tx, 'scrap', parts, changed, alerts);
-    return { result, alerts };
+    const mails = await partChangeMails(tx, parts.map((p) => p.id), { what: 'scrapped', by: actor.label, reason: data.reason });
+    return { result, alerts, mails };
   });
   await mailLowStockAlerts(alerts);
+  await sendPartChangeMails(mails);
   return result;
 }
