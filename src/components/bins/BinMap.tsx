@@ -86,7 +86,7 @@ function useWidth() {
   const ref = useCallback((el: HTMLDivElement | null) => {
     observer.current?.disconnect();
     if (!el) return;
-    const update = () => setWidth(Math.max(320, el.clientWidth));
+    const update = () => setWidth(Math.max(300, el.clientWidth));
     update();
     observer.current = new ResizeObserver(update);
     observer.current.observe(el);
@@ -140,14 +140,14 @@ export default function BinMap({ deviceTypes, initialType }: { deviceTypes: { id
       {error && <ErrorNotice error={error} retry={reload} />}
       {data && !data.plan && <Empty>{data.device_type.name} has no active bin plan yet. An admin sets one up under Bin plans.</Empty>}
       {data?.plan && extent && (
-        <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
-          <div className="card p-3" ref={ref}>
+        <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
+          <div className="card p-3 min-w-0" ref={ref}>
             {data.points.length === 0 && (
               <p className="notice-info mb-2">No binned parts of {data.device_type.name} yet; the grid shows the plan's bins.</p>
             )}
             <XYChart
               width={width - 24}
-              height={Math.round(Math.min(620, Math.max(380, (width - 24) * 0.62)))}
+              height={Math.round(Math.min(620, Math.max(320, (width - 24) * 0.62)))}
               margin={{ top: 16, right: 20, bottom: 48, left: 64 }}
               theme={theme}
               captureEvents={false}

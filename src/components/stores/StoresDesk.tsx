@@ -44,12 +44,12 @@ function AwaitingLots({ onReceived }: { onReceived: () => void }) {
           <tbody>
             {data.lots.map((l) => (
               <tr key={`${l.device_type}-${l.lot_id}`}>
-                <td>{l.device_type}</td>
-                <td>{l.lot ?? <span className="text-ink-faint">no lot</span>}</td>
+                <td className="whitespace-nowrap">{l.device_type}</td>
+                <td className="whitespace-nowrap">{l.lot ?? <span className="text-ink-faint">no lot</span>}</td>
                 <td className="num">{l.accepted}{l.unbinned > 0 && <span className="tag-review ml-1" title="no bin yet">{l.unbinned} unbinned</span>}</td>
                 <td className="text-right">
                   {l.lot_id !== null && (
-                    <button type="button" className="btn-quiet py-0.5" disabled={l.unbinned === l.accepted} onClick={() => void receiveLot(l)}>Receive whole lot</button>
+                    <button type="button" className="btn-quiet py-0.5" disabled={l.unbinned === l.accepted} onClick={() => void receiveLot(l)} aria-label={`Receive all of lot ${l.lot}`}>Receive lot</button>
                   )}
                 </td>
               </tr>
