@@ -1,12 +1,14 @@
 // npm start — sets everything up on this machine and runs Sluice:
 // dependencies, PostgreSQL on loopback, migrations, the demo scenario, the build, then the
-// mail sink, one fitting worker and the web server. Ctrl-C stops the app; data stays.
+// mail sink, one fitting worker and the web server, each restarted with a back-off when it
+// dies. Ctrl-C stops the app; data stays.
 import fs from 'node:fs';
 import path from 'node:path';
 import {
   DATA_DIR, ROOT, databaseUrl, ensureDatabases, ensureNodeModules, ensurePostgresInstalled, ensureSecrets, fail, log,
   portInUse, run, startChild, startCluster, waitForHttp, waitForPort,
 } from './setup-lib.mjs';
+import { supervise } from './supervise.mjs';
 
 const dev = process.argv.includes('--dev');
 const HOST = process.env.HOST ?? '127.0.0.1';
@@ -37,38 +39,37 @@ const envAll = { ...process.env, ...env };
 
 run(tsx, ['scripts/migrate.ts'], { env: envAll });
 
+// Each child is supervised: one that dies is started again after a back-off, and the others
+// go on. Ctrl-C (or SIGTERM) stops them all.
 const children = [];
-function stopAll(code = 0) {
-  for (const c of children) c.kill('SIGTERM');
-  setTimeout(() => process.exit(code), 500).unref();
+let stoppingAll = false;
+async function stopAll(code = 0) {
+  if (stoppingAll) return;
+  stoppingAll = true;
+  log('stopping the web server, the worker and the mail sink');
+  await Promise.all(children.map((c) => c.stop(10_000)));
+  process.exit(code);
 }
 process.on('SIGINT', () => stopAll(0));
 process.on('SIGTERM', () => stopAll(0));
+const keep = (name, cmd, args) => children.push(supervise(name, () => startChild(name, cmd, args, env)));
 
 if (!externalSmtp) {
   if (await portInUse(SMTP_PORT)) fail(`Port ${SMTP_PORT} (the local mail sink) is in use. Stop that program, or run: SMTP_PORT=2535 npm start`);
-  children.push(startChild('mail', tsx, ['scripts/mail-sink.ts'], env));
+  keep('mail', process.execPath, ['--import', 'tsx', 'scripts/mail-sink.ts']);
   await waitForPort(SMTP_PORT);
 }
 
 run(tsx, ['scripts/seed-demo.ts'], { env: envAll });
 
 if (dev) {
-  children.push(startChild('worker', tsx, ['src/worker.ts'], env));
-  children.push(startChild('web', astro, ['dev', '--host', HOST, '--port', String(PORT)], env));
+  keep('worker', process.execPath, ['--import', 'tsx', 'src/worker.ts']);
+  keep('web', astro, ['dev', '--host', HOST, '--port', String(PORT)]);
 } else {
   log('building the app');
   run(astro, ['build'], { env: envAll });
-  children.push(startChild('worker', tsx, ['src/worker.ts'], env));
-  children.push(startChild('web', process.execPath, [path.join(ROOT, 'dist', 'server', 'entry.mjs')], env));
-}
-for (const c of children) {
-  c.on('exit', (code, signal) => {
-    if (signal !== 'SIGTERM') {
-      console.error(`[sluice] a process stopped unexpectedly (exit ${code ?? signal}); stopping the rest.`);
-      stopAll(1);
-    }
-  });
+  keep('worker', process.execPath, ['--import', 'tsx', 'src/worker.ts']);
+  keep('web', process.execPath, [path.join(ROOT, 'dist', 'server', 'entry.mjs')]);
 }
 await waitForHttp(`http://${HOST}:${PORT}/api/health`, 120_000);
 const password = process.env.SLUICE_DEMO_PASSWORD ?? 'weir-street-demo';
