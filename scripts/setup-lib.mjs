@@ -1,7 +1,7 @@
 // Shared set-up steps for `npm start`, `npm test` and `npm run db:*`. Plain Node, no
 // dependencies, so it runs before `npm install` has.
 import { spawn, spawnSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
@@ -9,11 +9,24 @@ import { fileURLToPath } from 'node:url';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 export const DATA_DIR = path.join(ROOT, '.data');
-export const PG_DATA_DIR = path.join(DATA_DIR, 'pg');
-export const PG_LOG = path.join(DATA_DIR, 'pg.log');
 export const SECRETS_FILE = path.join(DATA_DIR, 'secrets.env');
-export const PG_PORT = Number(process.env.SLUICE_PG_PORT ?? 55432);
 export const IS_ROOT = typeof process.getuid === 'function' && process.getuid() === 0;
+/** Port of the cluster when none was chosen: SLUICE_PG_PORT, else the one this clone's cluster was made with. */
+export const DEFAULT_PG_PORT = 55432;
+/** Where a clone remembers the port its cluster was given when 55432 was taken at creation. */
+const PG_PORT_FILE = path.join(DATA_DIR, 'pg-port');
+export let PG_PORT = Number(process.env.SLUICE_PG_PORT ?? readPortFile() ?? DEFAULT_PG_PORT);
+/** Parent of the clusters kept outside the project folder (see `clusterHome`). */
+export const EXTERNAL_CLUSTERS_DIR = '/var/lib/sluice';
+
+function readPortFile() {
+  try {
+    const n = Number(fs.readFileSync(PG_PORT_FILE, 'utf8').trim());
+    return Number.isInteger(n) && n > 0 ? n : undefined;
+  } catch {
+    return undefined;
+  }
+}
 
 export function log(msg) {
   console.log(`[sluice] ${msg}`);
@@ -121,28 +134,86 @@ function portInUse(port) {
   });
 }
 
-export function clusterRunning(bin) {
-  if (!fs.existsSync(path.join(PG_DATA_DIR, 'PG_VERSION'))) return false;
-  return asDbOwner(path.join(bin, 'pg_ctl'), ['-D', PG_DATA_DIR, 'status']).status === 0;
+/** True when the `postgres` user can enter `dir` (every folder above it must let it through). */
+function postgresCanEnter(dir) {
+  return capture('runuser', ['-u', 'postgres', '--', 'test', '-x', dir]).status === 0;
 }
 
-export function initCluster(bin) {
-  if (fs.existsSync(path.join(PG_DATA_DIR, 'PG_VERSION'))) return;
-  log(`creating a database cluster in ${path.relative(ROOT, PG_DATA_DIR)}`);
-  fs.mkdirSync(PG_DATA_DIR, { recursive: true });
-  if (IS_ROOT) run('chown', ['postgres:postgres', PG_DATA_DIR]);
-  fs.chmodSync(PG_DATA_DIR, 0o700);
-  const r = asDbOwner(path.join(bin, 'initdb'), [
-    '-D', PG_DATA_DIR, '-U', 'postgres', '--auth-local=trust', '--auth-host=scram-sha-256', '-E', 'UTF8', '--locale=C.UTF-8',
-  ]);
-  if (r.status !== 0) {
-    fail(`initdb failed:\n${r.stdout}\n${r.stderr}\nIf the project folder is not readable by the postgres user, move it or run as that user.`);
+let home;
+/**
+ * The folder holding this clone's cluster (`pg/`) and its log (`pg.log`). As root, the
+ * cluster runs as the `postgres` user, who must be able to reach it: it is `.data/` in the
+ * project when that user can get there (as in /work or /srv), and otherwise — a clone in
+ * root's home or in a `mktemp -d` folder, both closed to other users — a folder of its own,
+ * `/var/lib/sluice/<first 12 hex of SHA-256 of the project path>/`, owned by `postgres`.
+ * No permission of the project folder or of any folder above it is changed. A cluster that
+ * exists already is used where it is. Call after PostgreSQL is installed.
+ */
+export function clusterHome() {
+  if (home) return home;
+  const external = path.join(EXTERNAL_CLUSTERS_DIR, createHash('sha256').update(ROOT).digest('hex').slice(0, 12));
+  if (fs.existsSync(path.join(DATA_DIR, 'pg', 'PG_VERSION'))) home = DATA_DIR;
+  else if (fs.existsSync(path.join(external, 'pg', 'PG_VERSION'))) home = external;
+  else if (!IS_ROOT) home = DATA_DIR;
+  else {
+    fs.mkdirSync(DATA_DIR, { recursive: true });
+    home = postgresCanEnter(DATA_DIR) ? DATA_DIR : external;
   }
+  return home;
+}
+
+export const pgDataDir = () => path.join(clusterHome(), 'pg');
+export const pgLog = () => path.join(clusterHome(), 'pg.log');
+const shown = (p) => (p.startsWith(ROOT + path.sep) ? path.relative(ROOT, p) : p);
+
+export function clusterRunning(bin) {
+  if (!fs.existsSync(path.join(pgDataDir(), 'PG_VERSION'))) return false;
+  return asDbOwner(path.join(bin, 'pg_ctl'), ['-D', pgDataDir(), 'status']).status === 0;
+}
+
+/**
+ * Creates this clone's cluster when it has none. Unless SLUICE_PG_PORT says otherwise, a new
+ * cluster takes 55432, or the next free port when another clone's cluster holds 55432; the
+ * port is remembered in .data/pg-port.
+ */
+export async function initCluster(bin) {
+  const dataDir = pgDataDir();
+  if (fs.existsSync(path.join(dataDir, 'PG_VERSION'))) return;
+  if (!process.env.SLUICE_PG_PORT && !readPortFile()) {
+    let port = DEFAULT_PG_PORT;
+    while ((await portInUse(port)) && port < DEFAULT_PG_PORT + 100) port++;
+    if (port !== DEFAULT_PG_PORT) {
+      fs.mkdirSync(DATA_DIR, { recursive: true });
+      fs.writeFileSync(PG_PORT_FILE, `${port}\n`);
+      log(`port ${DEFAULT_PG_PORT} is taken (another clone's cluster?): this clone's PostgreSQL gets ${port}, remembered in .data/pg-port`);
+    }
+    PG_PORT = port;
+  }
+  const where = clusterHome();
+  log(`creating a database cluster in ${shown(dataDir)}`);
+  if (where !== DATA_DIR) {
+    fs.mkdirSync(EXTERNAL_CLUSTERS_DIR, { recursive: true, mode: 0o755 });
+    fs.mkdirSync(where, { recursive: true });
+    // Says which project a folder under /var/lib/sluice belongs to.
+    fs.writeFileSync(path.join(where, 'project-path'), `${ROOT}\n`);
+    run('chown', ['postgres:postgres', where]);
+    fs.chmodSync(where, 0o755);
+    log(`(the postgres user cannot enter ${ROOT}, so the cluster is kept in ${where})`);
+  }
+  fs.mkdirSync(dataDir, { recursive: true });
+  if (IS_ROOT) run('chown', ['postgres:postgres', dataDir]);
+  fs.chmodSync(dataDir, 0o700);
+  const r = asDbOwner(path.join(bin, 'initdb'), [
+    '-D', dataDir, '-U', 'postgres', '--auth-local=trust', '--auth-host=scram-sha-256', '-E', 'UTF8', '--locale=C.UTF-8',
+  ]);
+  if (r.status !== 0) fail(`initdb failed:\n${r.stdout}\n${r.stderr}`);
 }
 
 export async function startCluster(bin) {
-  initCluster(bin);
+  await initCluster(bin);
   if (clusterRunning(bin)) return;
+  const PG_DATA_DIR = pgDataDir();
+  const PG_LOG = pgLog();
   if (await portInUse(PG_PORT)) {
     fail(
       `Port ${PG_PORT} on 127.0.0.1 is already in use by another program, so Sluice's database cannot start there.\n` +
@@ -156,7 +227,7 @@ export async function startCluster(bin) {
   if (r.status !== 0) {
     const tail = fs.existsSync(PG_LOG) ? fs.readFileSync(PG_LOG, 'utf8').split('\n').slice(-15).join('\n') : '';
     fail(
-      `PostgreSQL did not start.\n${r.stdout}${r.stderr}\nLast lines of ${path.relative(ROOT, PG_LOG)}:\n${tail}\n` +
+      `PostgreSQL did not start.\n${r.stdout}${r.stderr}\nLast lines of ${shown(PG_LOG)}:\n${tail}\n` +
         `A stale postmaster.pid left by a crash is removed by PostgreSQL itself when its process is gone; if the log says ` +
         `another server is running on this data folder, stop it with: npm run db:stop`,
     );
@@ -168,13 +239,13 @@ export function stopCluster(bin) {
     log('PostgreSQL is not running');
     return;
   }
-  const r = asDbOwner(path.join(bin, 'pg_ctl'), ['-D', PG_DATA_DIR, '-m', 'fast', '-w', 'stop']);
+  const r = asDbOwner(path.join(bin, 'pg_ctl'), ['-D', pgDataDir(), '-m', 'fast', '-w', 'stop']);
   if (r.status !== 0) fail(`pg_ctl stop failed:\n${r.stdout}${r.stderr}`);
   log('PostgreSQL stopped');
 }
 
 export function psql(bin, sql, db = 'postgres') {
-  const r = capture(path.join(bin, 'psql'), ['-h', PG_DATA_DIR, '-p', String(PG_PORT), '-U', 'postgres', '-d', db, '-v', 'ON_ERROR_STOP=1', '-qtAc', sql]);
+  const r = capture(path.join(bin, 'psql'), ['-h', pgDataDir(), '-p', String(PG_PORT), '-U', 'postgres', '-d', db, '-v', 'ON_ERROR_STOP=1', '-qtAc', sql]);
   if (r.status !== 0) fail(`psql failed: ${sql}\n${r.stderr}`);
   return r.stdout.trim();
 }
