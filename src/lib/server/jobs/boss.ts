@@ -17,14 +17,16 @@ export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
  * worker that dies (kill -9, power cut) holds its jobs this long, plus up to one
  * maintenance interval, plus the retry delay; a batch of fitting jobs takes a second or two.
  */
-export const JOB_EXPIRE_SECONDS = 40;
+export const JOB_EXPIRE_SECONDS = 30;
 /** How often one pg-boss instance on the database looks for expired jobs (maintenance). */
-export const MAINTENANCE_INTERVAL_SECONDS = 10;
+export const MAINTENANCE_INTERVAL_SECONDS = 5;
 
 /** Queue settings applied at every start, so that existing installations get them too. Dead-letter queues first. */
 const QUEUE_SETTINGS: [QueueName, Omit<PgBoss.Queue, 'name'>][] = [
   [QUEUES.fitUploadFileFailed, { expireInSeconds: 60, retryLimit: 5, retryDelay: 5 }],
-  [QUEUES.fitUploadFile, { expireInSeconds: JOB_EXPIRE_SECONDS, retryLimit: 3, retryDelay: 5, deadLetter: QUEUES.fitUploadFileFailed }],
+  // Five attempts, waiting about 3, 6, 12 and 24 s (each up to twice that) between them: a
+  // database restart of up to ~45 s costs no file.
+  [QUEUES.fitUploadFile, { expireInSeconds: JOB_EXPIRE_SECONDS, retryLimit: 4, retryDelay: 3, retryBackoff: true, deadLetter: QUEUES.fitUploadFileFailed }],
   [QUEUES.expireReservations, { expireInSeconds: 120 }],
   // About 2.5 hours of attempts, doubling the wait each time, before a message is given up.
   [QUEUES.sendMail, { expireInSeconds: 60, retryLimit: 12, retryDelay: 5, retryBackoff: true }],

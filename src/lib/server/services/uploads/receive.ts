@@ -120,7 +120,8 @@ export async function receiveSweepUpload({
     const toFit = rows.filter((r) => r.reason === null && r.duplicate_of === null);
     if (boss && toFit.length) {
       await boss.insert(
-        toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id }, retryLimit: 3, retryDelay: 5 })),
+        // Retries, back-off, expiry and dead letters are the queue's (jobs/boss.ts).
+        toFit.map((r) => ({ name: QUEUES.fitUploadFile, data: { uploadFileId: r.id } })),
         { db: { executeSql: (text, values) => client.query(text, values) } },
       );
     }
