@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import { formatDateTime } from '../../core/units/format-date';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
@@ -12,7 +13,7 @@ interface StationRow {
 }
 
 function when(iso: string | null) {
-  return iso ? new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' }) : '—';
+  return formatDateTime(iso);
 }
 
 /** Test-station tokens: create (the token is shown once), list, revoke. */

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { formatQuantity } from '../../core/units/format-quantity';
+import { formatOpenRange } from '../../core/units/format-quantity';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
@@ -105,8 +105,8 @@ function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeRow; onS
   );
 }
 
-const limits = (lo: number | null, hi: number | null, unit: 'A' | 'V') =>
-  lo === null && hi === null ? '—' : `${lo === null ? '…' : formatQuantity(lo, unit, 2)} to ${hi === null ? '…' : formatQuantity(hi, unit, 2)}`;
+/** Spec limits as one range in one unit ("−4.0 to −0.6 V", not "−4.00 V to −600.00 mV"). */
+const limits = (lo: number | null, hi: number | null, unit: 'A' | 'V') => formatOpenRange(lo, hi, unit, 1);
 
 /** Device types: the channel, IDSS test VDS, nominal temperature and spec limits fitting uses. */
 export default function DeviceTypesAdmin() {

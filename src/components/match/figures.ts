@@ -1,3 +1,4 @@
+import { formatDateTime } from '../../core/units/format-date';
 import { formatQuantity } from '../../core/units/format-quantity';
 
 /** Display helpers shared by the match, reservation and pick-list islands. */
@@ -28,9 +29,9 @@ export function roleLabel(role: string, cascodeIndex?: number): string {
   return cascodeIndex === undefined ? base : `${base} ${cascodeIndex + 1}`;
 }
 
+/** The one date-and-time format (ISO 8601, UTC). */
 export function dateTime(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  return new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+  return formatDateTime(iso);
 }
 
 /** "in 2 days 5 h" / "3 h ago" */

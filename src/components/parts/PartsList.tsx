@@ -1,5 +1,7 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { percent, q } from './figures';
+import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
+import { columnFormat } from '../../core/units/format-quantity';
+import { percent } from './figures';
 import { flagWord, STATUS_WORDS, statusClass } from './part-types';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
@@ -64,6 +66,13 @@ export default function PartsList({ deviceTypes, lots }: { deviceTypes: string[]
     apply(next);
   }
   const page = Number(filters.page ?? 1);
+  // One unit per column over the rows of this page; IDSS in datasheet sign (negative for P).
+  const rows = data?.parts ?? [];
+  const col = {
+    idss: columnFormat(rows.map((p) => (p.idss_a === null ? null : idssInDatasheetSign(p.idss_a, p.channel))), 'A', 4),
+    vp: columnFormat(rows.map((p) => p.vp_v), 'V', 4),
+    gfs: columnFormat(rows.map((p) => p.gfs_s), 'S', 4),
+  };
 
   return (
     <div className="space-y-4">
@@ -117,9 +126,9 @@ export default function PartsList({ deviceTypes, lots }: { deviceTypes: string[]
                 <th>Status</th>
                 <th>Type · lot</th>
                 <th>Bin</th>
-                <th className="text-right">IDSS</th>
-                <th className="text-right">VP</th>
-                <th className="text-right">gfs</th>
+                <th className="text-right">IDSS ({col.idss.unit})</th>
+                <th className="text-right">VP ({col.vp.unit})</th>
+                <th className="text-right">gfs ({col.gfs.unit})</th>
                 <th className="text-right">RMS / IDSS</th>
                 <th>Flags</th>
               </tr>
@@ -131,9 +140,9 @@ export default function PartsList({ deviceTypes, lots }: { deviceTypes: string[]
                   <td><span className={statusClass(p.status)}>{STATUS_WORDS[p.status] ?? p.status}</span></td>
                   <td>{p.device_type}{p.lot ? <span className="text-ink-faint"> · {p.lot}</span> : null}</td>
                   <td>{p.bin_code ?? <span className="text-ink-faint">—</span>}{p.location ? <span className="text-ink-faint"> · {p.location}</span> : null}</td>
-                  <td className="num">{q(p.idss_a, 'A', 2)}</td>
-                  <td className="num">{q(p.vp_v, 'V', 2)}</td>
-                  <td className="num">{q(p.gfs_s, 'S', 2)}</td>
+                  <td className="num">{col.idss.number(p.idss_a === null ? null : idssInDatasheetSign(p.idss_a, p.channel))}</td>
+                  <td className="num">{col.vp.number(p.vp_v)}</td>
+                  <td className="num">{col.gfs.number(p.gfs_s)}</td>
                   <td className="num">{percent(p.rms_rel)}</td>
                   <td className="text-xs">{p.flags.map(flagWord).join(', ')}</td>
                 </tr>

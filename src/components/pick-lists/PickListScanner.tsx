@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import type { PickListView } from '../../lib/server/services/pick-lists/pick-list-view';
+import { formatTime } from '../../core/units/format-date';
 import { STATUS_TAG, dateTime, relativeTo, roleLabel } from '../match/figures';
 import { ApiError, apiFetch, useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
@@ -206,7 +207,7 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
                   <td>
                     {l.picked_at ? (
                       <span className="tag-ok">
-                        ✓ {new Date(l.picked_at).toLocaleTimeString('en-GB', { timeStyle: 'short' })}
+                        ✓ {formatTime(l.picked_at)}
                         {l.picked_by && ` · ${l.picked_by}`}
                       </span>
                     ) : (

@@ -440,7 +440,7 @@ export default function StatisticsExplorer({ initial }: { initial: Partial<Selec
             <option value="">All lots</option>
             {lots.map((l) => (
               <option key={l.id} value={l.code}>
-                {l.code} · {l.device_type} · {l.part_count} parts · {l.received_at.slice(0, 10)}
+                {l.code} · {l.device_type} · {l.part_count} parts · {formatDate(l.received_at)}
               </option>
             ))}
           </select>
