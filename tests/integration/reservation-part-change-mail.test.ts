@@ -60,6 +60,14 @@ describe('mail to the designer when a reserved part changes', () => {
     expect(mail.text).toContain(`/reservations/${r.reservationId}`);
   });
 
+  it('the set\'s model-card comments carry rounded figures, not raw floats (item 3)', async () => {
+    const r = await reservePair('MT-MAIL', 'card comment check');
+    const text = await (await designer.fetch(`/api/reservations/${r.reservationId}/sets/1/model-cards`)).text();
+    const comment = text.split('\n').find((l) => l.startsWith('* matched at'))!;
+    expect(comment).toMatch(/^\* matched at ID = 1\.000 mA, \|VDS\| = 10\.0 V; \|dVGS\| = [\d.]+ [mu]?V, gm mismatch = \d+\.\d\d %, IDSS mismatch = \d+\.\d\d %$/);
+    expect(comment).not.toMatch(/\d{7,}/);
+  });
+
   it('scrapped by stores: the part leaves its set, the designer is told why', async () => {
     const r = await reservePair('MT-MAIL', 'scrap mail check');
     const res = await stores.fetch('/api/stock/scrap', { method: 'POST', json: { serials: [r.serials[1]], reason: 'bent leads' } });

@@ -1,6 +1,7 @@
 import { eq, inArray } from 'drizzle-orm';
 import { writeCsv } from '../../../../core/csv/write-csv';
 import { formatModelCard } from '../../../../core/fit/model-card';
+import { formatPercent, formatSignificant, type QuantityUnit } from '../../../../core/units/format-quantity';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
@@ -24,10 +25,14 @@ const CSV_COLUMNS = [
 ] as const;
 
 
+// SPICE decks are read by tools that expect ASCII: plain minus, "u" for micro, "ohm".
+const ascii = (text: string) => text.replace(/\u2212/g, '-').replace(/µ/g, 'u').replace(/Ω/g, 'ohm');
+const fig = (value: number, unit: QuantityUnit, sig = 4) => ascii(formatSignificant(value, unit, sig));
+
 function describeOperatingPoint(op: StoredProposalResult['operating_point']): string {
-  if (op.kind === 'current') return `ID = ${op.id_a} A, VDS = ${op.vds_v} V`;
-  if (op.kind === 'idss') return `VGS = 0 (IDSS), VDS = ${op.vds_v} V`;
-  return `self-bias RS = ${op.rs_ohm} ohm, VDS = ${op.vds_v} V`;
+  if (op.kind === 'current') return `ID = ${fig(op.id_a ?? Number.NaN, 'A')}, |VDS| = ${fig(op.vds_v, 'V', 3)}`;
+  if (op.kind === 'idss') return `VGS = 0 (IDSS), |VDS| = ${fig(op.vds_v, 'V', 3)}`;
+  return `self-bias RS = ${fig(op.rs_ohm ?? Number.NaN, 'Ω')}, |VDS| = ${fig(op.vds_v, 'V', 3)}`;
 }
 
 /** The model cards (NJF/PJF, one per part, named by serial) or the CSV of one set's figures. */
@@ -47,7 +52,7 @@ async function exportSet(result: StoredProposalResult, setNo: number, label: str
   if (format === 'spice') {
     const lines = [
       `* Sluice matched set ${setNo} of ${label}: ${result.device_type.name}, ${result.shape.replace(/_/g, ' ')}`,
-      `* matched at ${describeOperatingPoint(result.operating_point)}; |dVGS| = ${set.dvgs_v} V, gm mismatch = ${set.gm_mismatch}, IDSS mismatch = ${set.idss_mismatch}`,
+      `* matched at ${describeOperatingPoint(result.operating_point)}; |dVGS| = ${fig(set.dvgs_v, 'V', 3)}, gm mismatch = ${ascii(formatPercent(set.gm_mismatch, 2))}, IDSS mismatch = ${ascii(formatPercent(set.idss_mismatch, 2))}`,
     ];
     for (const p of set.parts) {
       const f = fitOf.get(p.part_id);
