@@ -1,6 +1,8 @@
+import type { APIContext, MiddlewareNext } from 'astro';
 import { defineMiddleware } from 'astro:middleware';
 import { STATION_GRANTS, allows, ruleFor } from './lib/access';
-import { json } from './lib/server/errors';
+import { HTTP_METHODS, matchRouteFile, routeOfFile } from './lib/route-files';
+import { json, toResponse } from './lib/server/errors';
 import { stationFromBearer, userFromHeaders } from './lib/server/identity';
 
 /**
@@ -9,6 +11,24 @@ import { stationFromBearer, userFromHeaders } from './lib/server/identity';
  * the signed-in a "not for your role" page.
  */
 export const onRequest = defineMiddleware(async (context, next) => {
+  const { pathname } = context.url;
+  const isApi = pathname.startsWith('/api/');
+  if (!isApi) return guard(context, next);
+  // Every API answer is JSON `{ error: { code, message } }`, whatever went wrong and where.
+  if (/%00|\u0000/i.test(context.url.pathname + context.url.search)) {
+    return json({ error: { code: 'invalid_input', message: 'The address holds a NUL character (%00), which no Sluice route takes. Remove it and try again.' } }, 400);
+  }
+  let res: Response;
+  try {
+    res = await guard(context, next);
+  } catch (err) {
+    return toResponse(err);
+  }
+  if (res.status >= 400 && !(res.headers.get('content-type') ?? '').includes('json')) return apiErrorAsJson(context.request.method, pathname, res);
+  return res;
+});
+
+const guard = async (context: APIContext, next: MiddlewareNext): Promise<Response> => {
   const { pathname } = context.url;
   const isApi = pathname.startsWith('/api/');
   context.locals.user = null;
@@ -44,4 +64,29 @@ export const onRequest = defineMiddleware(async (context, next) => {
     return context.rewrite(new Request(new URL(`/not-for-your-role?need=${encodeURIComponent(needText)}`, context.url), { headers: context.request.headers }));
   }
   return next();
-});
+};
+
+const API_MODULES = import.meta.glob<Record<string, unknown>>('./pages/api/**/*.ts');
+const API_ROUTES = Object.keys(API_MODULES).map((file) => ({ ...routeOfFile(file.replace(/^\.\//, 'src/')), key: file }));
+
+/** A framework answer (an unknown path, a method the route lacks) turned into the API's JSON error. */
+async function apiErrorAsJson(method: string, pathname: string, res: Response): Promise<Response> {
+  const route = matchRouteFile(API_ROUTES, pathname);
+  if (route && res.status === 404) {
+    const mod = await API_MODULES[(route as (typeof API_ROUTES)[number]).key]();
+    const methods = HTTP_METHODS.filter((m) => typeof mod[m] === 'function');
+    if (!methods.includes(method as (typeof methods)[number]) && !methods.includes('ALL')) {
+      return json(
+        { error: { code: 'method_not_allowed', message: `${route.route} does not take ${method}; it takes ${methods.join(', ')}.`, allow: methods } },
+        405,
+        { allow: methods.join(', ') },
+      );
+    }
+  }
+  if (res.status === 404) {
+    return json({ error: { code: 'not_found', message: `There is no API route ${method} ${pathname}. The routes are listed in docs/api-sweeps.md.` } }, 404);
+  }
+  const text = (await res.text()).slice(0, 300);
+  const code = res.status === 403 ? 'forbidden' : res.status === 413 ? 'too_large' : res.status >= 500 ? 'internal' : 'invalid_input';
+  return json({ error: { code, message: text || `The request was refused (${res.status}).` } }, res.status);
+}

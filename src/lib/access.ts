@@ -104,6 +104,17 @@ export function parseRoles(field: string | null | undefined): Role[] {
     .filter(isRole);
 }
 
+/**
+ * better-auth's fallback role for an account created without one (Sluice's own invitations and
+ * the demo always name the roles).
+ */
+export const DEFAULT_ROLE: Role = 'designer';
+
+/** The roles that are granted `permission`. */
+export function rolesWith(permission: Permission): Role[] {
+  return ROLES.filter((r) => ROLE_GRANTS[r].includes(permission));
+}
+
 export function hasPermission(roles: readonly Role[], permission: Permission): boolean {
   return roles.some((r) => ROLE_GRANTS[r].includes(permission));
 }
@@ -112,7 +123,43 @@ export function permissionsOf(roles: readonly Role[]): Permission[] {
   return [...new Set(roles.flatMap((r) => ROLE_GRANTS[r]))];
 }
 
-/** Pages and API routes and what each needs. First match wins; unmatched paths need sign-in. */
+/**
+ * Records that belong to one person: the designer who asked for a match proposal, holds a
+ * reservation, or waits on its pick list. Services load them through `ownedRecordScope`, so a
+ * record of someone else's is absent (404) unless a permission lets the actor see everyone's.
+ */
+export type OwnedRecord = 'matchProposal' | 'reservation' | 'pickList';
+
+const OWNED_RECORD_ACCESS: Record<OwnedRecord, { everyone: Permission | null; own: Permission[] }> = {
+  matchProposal: { everyone: null, own: ['match:request'] },
+  reservation: { everyone: null, own: ['match:request'] },
+  pickList: { everyone: 'pickLists:read', own: ['match:reserve'] },
+};
+
+/** Which records of this kind the actor may see: everyone's, their own, or none. */
+export function ownedRecordScope(kind: OwnedRecord, grants: readonly Permission[]): 'everyone' | 'own' | 'none' {
+  const access = OWNED_RECORD_ACCESS[kind];
+  if (access.everyone && grants.includes(access.everyone)) return 'everyone';
+  return access.own.some((p) => grants.includes(p)) ? 'own' : 'none';
+}
+
+/** The permissions that give any access to records of this kind. */
+export function ownedRecordNeed(kind: OwnedRecord): Permission[] {
+  const access = OWNED_RECORD_ACCESS[kind];
+  return [...(access.everyone ? [access.everyone] : []), ...access.own];
+}
+
+/** Whether the actor (a person's id and grants) may see one record owned by `ownerUserId`. */
+export function maySeeOwnedRecord(kind: OwnedRecord, actor: { userId: string | null; permissions: readonly Permission[] }, ownerUserId: string): boolean {
+  const scope = ownedRecordScope(kind, actor.permissions);
+  return scope === 'everyone' || (scope === 'own' && actor.userId !== null && actor.userId === ownerUserId);
+}
+
+/**
+ * Pages and API routes and what each needs. First match wins; a path no rule matches needs
+ * sign-in. `tests/unit/access-rules.test.ts` checks that every rule is the first match of some
+ * route file under src/pages and that every route file has a rule.
+ */
 export interface RouteRule {
   pattern: RegExp;
   methods?: readonly string[];
@@ -122,9 +169,12 @@ export interface RouteRule {
 
 export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/$/, need: 'public' },
-  { pattern: /^\/(sign-in|set-password|forgot-password|about)\/?$/, need: 'public' },
+  { pattern: /^\/(sign-in|set-password|forgot-password)\/?$/, need: 'public' },
+  { pattern: /^\/(home|not-for-your-role|sign-out)\/?$/, need: 'signed-in' },
+  { pattern: /^\/api\/me\/?$/, need: 'signed-in' },
   { pattern: /^\/api\/auth\//, need: 'public' },
   { pattern: /^\/api\/health\/?$/, need: 'public' },
+  // Served once the OpenAPI document lands (issue 14, item 3); no route file yet.
   { pattern: /^\/api\/openapi\.json$/, need: 'public' },
   { pattern: /^\/(_astro|fonts|favicon)/, need: 'public' },
   { pattern: /^\/(admin\/users|api\/admin\/users)/, need: 'users:manage' },
@@ -134,7 +184,7 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/(admin\/audit|api\/admin\/audit)/, need: 'audit:read' },
   { pattern: /^\/api\/bin-plans/, methods: ['POST', 'PUT', 'PATCH', 'DELETE'], need: 'binPlans:manage' },
   { pattern: /^\/api\/bin-plans/, need: 'binPlans:read' },
-  { pattern: /^\/(dev\/mail|api\/dev\/mail)/, need: 'devMail:read' },
+  { pattern: /^\/dev\/mail/, need: 'devMail:read' },
   { pattern: /^\/api\/sweeps\/?$/, methods: ['POST'], need: 'sweeps:upload' },
   { pattern: /^\/(upload|api\/uploads)/, need: 'sweeps:upload' },
   { pattern: /^\/(review|api\/review)/, need: 'fits:review' },
@@ -158,8 +208,6 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/(match|api\/match|reservations|api\/reservations)/, need: 'match:request' },
   { pattern: /^\/(statistics|api\/statistics)/, need: 'statistics:read' },
   { pattern: /^\/(estimates|api\/estimates)/, need: 'estimates:use' },
-  { pattern: /^\/(audit|api\/audit)/, need: 'audit:read' },
-  { pattern: /^\/(device-types|api\/device-types)/, need: 'deviceTypes:read' },
 ];
 
 export function ruleFor(pathname: string, method: string): RouteRule | undefined {

@@ -5,6 +5,7 @@ import { createAccessControl } from 'better-auth/plugins/access';
 import { adminAc, defaultStatements } from 'better-auth/plugins/admin/access';
 import { and, eq, isNull } from 'drizzle-orm';
 import { getDb, schema } from '../../db/client';
+import { DEFAULT_ROLE, ROLES, rolesWith } from '../access';
 import { serverEnv } from './env';
 import { sendMail } from './mail';
 
@@ -12,13 +13,14 @@ import { sendMail } from './mail';
 export const CLIENT_IP_HEADER = 'x-sluice-client-ip';
 
 const ac = createAccessControl(defaultStatements);
-/** The admin plugin only needs to know who administers users; Sluice's own grants are in access.ts. */
-const pluginRoles = {
-  admin: ac.newRole({ ...adminAc.statements }),
-  inspector: ac.newRole({}),
-  designer: ac.newRole({}),
-  stores: ac.newRole({}),
-};
+/**
+ * The admin plugin's roles, made from access.ts: it only needs to know who administers users
+ * (the roles granted users:manage); Sluice's own grants stay in access.ts.
+ */
+const userAdminRoles = rolesWith('users:manage');
+const pluginRoles = Object.fromEntries(
+  ROLES.map((role) => [role, ac.newRole(userAdminRoles.includes(role) ? { ...adminAc.statements } : {})]),
+) as Record<(typeof ROLES)[number], ReturnType<typeof ac.newRole>>;
 
 function createAuth() {
   const env = serverEnv();
@@ -80,11 +82,13 @@ function createAuth() {
       },
     },
     advanced: {
+      // Set by the auth route from Astro's clientAddress, which the server entry takes from the
+      // socket (or a trusted proxy): see src/http-front/front.mjs.
       ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
       defaultCookieAttributes: { httpOnly: true, sameSite: 'lax' },
       useSecureCookies: env.publicUrl.startsWith('https://'),
     },
-    plugins: [admin({ ac, roles: pluginRoles, defaultRole: 'designer', adminRoles: ['admin'] })],
+    plugins: [admin({ ac, roles: pluginRoles, defaultRole: DEFAULT_ROLE, adminRoles: [...userAdminRoles] })],
   });
 }
 

@@ -20,7 +20,10 @@ const EnvSchema = z.object({
   /** Set by the start command when it runs the local mail sink: enables the dev mail page. */
   SLUICE_MAIL_SINK_DIR: z.string().optional(),
   SLUICE_UPLOADS_DIR: z.string().default('uploads'),
-  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  SLUICE_SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(30),
+  SLUICE_SIGN_IN_FAILURES_PER_ACCOUNT: z.coerce.number().int().positive().default(5),
+  SLUICE_SIGN_IN_FAILURES_PER_ADDRESS: z.coerce.number().int().positive().default(20),
+  SLUICE_SIGN_IN_FAILURE_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   SLUICE_RESERVATION_DAYS: z.coerce.number().positive().default(3),
   SLUICE_STORES_ALERT_TO: z.string().optional(),
 });
@@ -38,6 +41,9 @@ export interface ServerEnv {
   mailSinkDir: string | undefined;
   uploadsDir: string;
   signInLimitPerMinute: number;
+  signInFailuresPerAccount: number;
+  signInFailuresPerAddress: number;
+  signInFailureWindowS: number;
   reservationDays: number;
 }
 
@@ -78,6 +84,9 @@ export function serverEnv(): ServerEnv {
     mailSinkDir: e.SLUICE_MAIL_SINK_DIR,
     uploadsDir: e.SLUICE_UPLOADS_DIR,
     signInLimitPerMinute: e.SLUICE_SIGN_IN_LIMIT_PER_MINUTE,
+    signInFailuresPerAccount: e.SLUICE_SIGN_IN_FAILURES_PER_ACCOUNT,
+    signInFailuresPerAddress: e.SLUICE_SIGN_IN_FAILURES_PER_ADDRESS,
+    signInFailureWindowS: Math.round(e.SLUICE_SIGN_IN_FAILURE_WINDOW_MINUTES * 60),
     reservationDays: e.SLUICE_RESERVATION_DAYS,
   };
   return cached;

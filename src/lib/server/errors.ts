@@ -67,6 +67,24 @@ export function toResponse(err: unknown): Response {
     const e = fromZodError(err as { issues: { path: PropertyKey[]; message: string }[] });
     return toResponse(e);
   }
+  const data = postgresDataException(err);
+  if (data) {
+    // A value the request carried that no column can hold, missed by the request's own checks.
+    console.warn('[api] request value refused by PostgreSQL:', data.message);
+    return json(
+      { error: { code: 'invalid_input', message: `A value in the request cannot be used: ${data.message}. Check the ids, numbers, dates and text you sent.` } },
+      400,
+    );
+  }
   console.error(err);
   return json({ error: { code: 'internal', message: 'Something went wrong on the server; it has been logged.' } }, 500);
+}
+
+/** PostgreSQL's data exceptions (SQLSTATE class 22: out of range, bad text, NUL bytes), wrapped or not. */
+function postgresDataException(err: unknown): { code: string; message: string } | null {
+  for (let e = err, depth = 0; e && typeof e === 'object' && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code, message } = e as { code?: unknown; message?: unknown };
+    if (typeof code === 'string' && /^22[0-9A-Z]{3}$/.test(code) && typeof message === 'string') return { code, message };
+  }
+  return null;
 }

@@ -1,7 +1,9 @@
 import { createHash } from 'node:crypto';
 import { and, eq, isNull } from 'drizzle-orm';
 import { getDb, schema } from '../../db/client';
-import { STATION_GRANTS, hasPermission, parseRoles, permissionsOf, type Permission, type Role } from '../access';
+import {
+  STATION_GRANTS, hasPermission, maySeeOwnedRecord, ownedRecordNeed, ownedRecordScope, parseRoles, permissionsOf, type OwnedRecord, type Permission, type Role,
+} from '../access';
 import { AppError } from './errors';
 import { getAuth } from './auth';
 
@@ -43,6 +45,22 @@ export function requirePermission(actor: Actor | null, permission: Permission): 
     throw new AppError('forbidden', `Your roles do not allow this (it needs ${permission}).`, { missing: permission });
   }
 }
+
+/**
+ * Which records of one person's kind (access.ts `OwnedRecord`) the actor may see: everyone's or
+ * only their own; throws 401/403 as an AppError when none.
+ */
+export function requireOwnedRecordScope(actor: Actor | null, kind: OwnedRecord): { actor: Actor; scope: 'everyone' | 'own' } {
+  if (!actor) throw new AppError('unauthenticated', 'Sign in first: this needs an account.');
+  const scope = ownedRecordScope(kind, actor.permissions);
+  if (scope === 'none') {
+    const need = ownedRecordNeed(kind);
+    throw new AppError('forbidden', `Your roles do not allow this (it needs ${need.join(' or ')}).`, { missing: need[0] });
+  }
+  return { actor, scope };
+}
+
+export { maySeeOwnedRecord };
 
 export async function userFromHeaders(headers: Headers): Promise<SignedInUser | null> {
   const session = await getAuth().api.getSession({ headers });

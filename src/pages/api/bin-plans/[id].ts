@@ -1,9 +1,6 @@
-import { AppError } from '../../../lib/server/errors';
-import { endpoint } from '../../../lib/server/http';
+import { endpoint, rowId } from '../../../lib/server/http';
 import { getBinPlan } from '../../../lib/server/services/bin-plans/list';
 
 export const GET = endpoint(({ params }, actor) => {
-  const id = Number(params.id);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError('invalid_input', `"${params.id}" is not a bin plan id.`);
-  return getBinPlan({ actor, id });
+  return getBinPlan({ actor, id: rowId(params.id, 'bin plan') });
 });

@@ -1,5 +1,5 @@
 import { AppError } from '../../../lib/server/errors';
-import { endpoint, json } from '../../../lib/server/http';
+import { capRequestBody, endpoint, json } from '../../../lib/server/http';
 import { receiveSweepUpload, type IncomingFile } from '../../../lib/server/services/uploads/receive';
 import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '../../../lib/server/services/uploads/schemas';
 
@@ -9,14 +9,19 @@ export const POST = endpoint(async ({ request }, actor) => {
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw new AppError('invalid_input', 'Send the sweep files as multipart/form-data, one or more fields named "file".');
   }
+  const tooLarge = (what: string) =>
+    new AppError('too_large', `The request is ${what}; one request may carry at most ${MAX_UPLOAD_REQUEST_BYTES} bytes. Send the files in several requests.`, {
+      limit_bytes: MAX_UPLOAD_REQUEST_BYTES,
+    });
   const length = Number(request.headers.get('content-length') ?? 0);
-  if (length > MAX_UPLOAD_REQUEST_BYTES) {
-    throw new AppError('too_large', `The request is ${length} bytes; one request may carry at most ${MAX_UPLOAD_REQUEST_BYTES} bytes. Send the files in several requests.`);
-  }
+  if (length > MAX_UPLOAD_REQUEST_BYTES) throw tooLarge(`${length} bytes`);
+  // Chunked requests carry no Content-Length: the cap is applied while the body streams in.
+  const capped = capRequestBody(request, MAX_UPLOAD_REQUEST_BYTES);
   let form: FormData;
   try {
-    form = await request.formData();
+    form = await capped.request.formData();
   } catch {
+    if (capped.exceeded()) throw tooLarge('larger than that');
     throw new AppError('invalid_input', 'The multipart body could not be read; send the files as multipart/form-data fields named "file".');
   }
   const files: IncomingFile[] = [];
@@ -27,7 +32,10 @@ export const POST = endpoint(async ({ request }, actor) => {
   const tags: Record<string, string> = {};
   for (const key of UPLOAD_TAG_FIELDS) {
     const v = form.get(key);
-    if (typeof v === 'string') tags[key] = v;
+    if (typeof v === 'string') {
+      if (v.includes('\u0000')) throw new AppError('invalid_input', `The field ${key} holds a NUL character (\\u0000), which Sluice cannot store. Remove it and send again.`);
+      tags[key] = v;
+    }
   }
   return json(await receiveSweepUpload({ actor, files, tags }), 202);
 });

@@ -3,6 +3,7 @@ import { matchedSetImplications, sourceResistorForCurrent } from '../../../../co
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
+import { loadOwnReservation } from '../reservations/get';
 import { withRequestFields } from './core-errors';
 import { fitReviewWarnings, loadPartModel } from './part-model';
 import { SetRequest } from './schemas';
@@ -17,19 +18,22 @@ interface SetMember {
   matched: { vgs_v: number; gm_s: number; idss_a: number } | null;
 }
 
-async function membersOf(body: SetRequest): Promise<Map<number, SetMember[]>> {
+async function membersOf(actor: Actor, body: SetRequest): Promise<Map<number, SetMember[]>> {
   const sets = new Map<number, SetMember[]>();
   if (body.serials) {
     sets.set(0, body.serials.map((serial, i) => ({ serial, role: `part ${i + 1}`, matched: null })));
     return sets;
   }
   const db = getDb();
-  const [res] = await db.select().from(schema.reservation).where(eq(schema.reservation.id, body.reservation_id!)).limit(1);
-  if (!res) {
-    throw new AppError('not_found', `No reservation ${body.reservation_id} (reservation_id). Copy the id from the reservation page.`, {
-      fields: [{ field: 'reservation_id', message: 'no reservation with this id' }],
-    });
-  }
+  // Through the one ownership rule: another designer's reservation is as absent as a made-up id.
+  const res = await loadOwnReservation(db, actor, body.reservation_id!).catch((err: unknown) => {
+    if (err instanceof AppError && err.code === 'not_found') {
+      throw new AppError('not_found', `No reservation ${body.reservation_id} of yours (reservation_id). Copy the id from your reservation's page.`, {
+        fields: [{ field: 'reservation_id', message: 'no reservation of yours with this id' }],
+      });
+    }
+    throw err;
+  });
   const rows = await db
     .select({ rp: schema.reservationPart, serial: schema.part.serial })
     .from(schema.reservationPart)
@@ -54,7 +58,7 @@ async function membersOf(body: SetRequest): Promise<Map<number, SetMember[]>> {
 export async function estimateMatchedSet({ actor, input }: { actor: Actor | null; input: unknown }) {
   requirePermission(actor, 'estimates:use');
   const body = SetRequest.parse(input);
-  const sets = await membersOf(body);
+  const sets = await membersOf(actor, body);
   const db = getDb();
   const out = [];
   for (const [setIndex, members] of sets) {

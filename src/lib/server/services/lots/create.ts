@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
+import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '../../../../core/dates/storable-date';
 import { getDb, schema } from '../../../../db/client';
 import { writeAudit } from '../../audit';
 import { AppError } from '../../errors';
@@ -10,7 +11,10 @@ export const CreateLotInput = z.object({
   device_type: z.string().trim().min(1, 'name the device type of the lot'),
   supplier: z.string().trim().max(120).default(''),
   notes: z.string().trim().max(1000).default(''),
-  received_at: z.coerce.date().optional(),
+  received_at: z.coerce
+    .date({ error: 'expected a date such as 2025-03-01' })
+    .refine(isStorableDate, { error: `expected ${STORABLE_DATE_RANGE_TEXT}` })
+    .optional(),
 });
 export type CreateLotInput = z.infer<typeof CreateLotInput>;
 

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, schema, type DbOrTx } from '../../../../db/client';
 import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { maySeeOwnedRecord, requirePermission, type Actor } from '../../identity';
 import type { StoredProposalResult } from './create-proposal';
 import type { ProposalView } from './proposal-view';
 
@@ -14,7 +14,7 @@ export async function loadOwnProposal(db: DbOrTx, actor: Actor, id: string, lock
   if (!parsed.success) throw new AppError('not_found', `There is no match proposal ${id}.`);
   const q = db.select().from(schema.matchProposal).where(eq(schema.matchProposal.id, parsed.data));
   const [row] = lock ? await q.for('update') : await q;
-  if (!row || row.designerUserId !== actor.userId) {
+  if (!row || !maySeeOwnedRecord('matchProposal', actor, row.designerUserId)) {
     throw new AppError('not_found', `There is no match proposal ${id} of yours. Ask for a new one on the match page.`);
   }
   return row;

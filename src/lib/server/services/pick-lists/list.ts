@@ -1,11 +1,10 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, schema } from '../../../../db/client';
-import type { Actor } from '../../identity';
+import { requireOwnedRecordScope, type Actor } from '../../identity';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { expireDueReservations } from '../reservations/expire';
 import { pickLineCounts, pickListCode, reservationCode } from '../reservations/reservation-view';
-import { pickListReader } from './access';
 
 export const PickListFilter = z.object({ status: z.enum(['open', 'complete', 'cancelled', 'all']).default('open') });
 
@@ -26,7 +25,7 @@ export interface PickListSummary {
 
 /** Pick lists, oldest open first (stores), or the designer's own. */
 export async function listPickLists({ actor, input }: { actor: Actor | null; input?: unknown }): Promise<PickListSummary[]> {
-  const view = pickListReader(actor);
+  const { scope } = requireOwnedRecordScope(actor, 'pickList');
   const { status } = PickListFilter.parse(input ?? {});
   await expireDueReservations();
   const db = getDb();
@@ -39,7 +38,7 @@ export async function listPickLists({ actor, input }: { actor: Actor | null; inp
     .where(
       and(
         status === 'all' ? undefined : eq(schema.pickList.status, status),
-        view === 'designer' ? eq(schema.reservation.designerUserId, actor!.userId ?? '') : undefined,
+        scope === 'own' ? eq(schema.reservation.designerUserId, actor!.userId ?? '') : undefined,
       ),
     )
     .orderBy(status === 'open' ? schema.pickList.createdAt : desc(schema.pickList.createdAt))

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { getDb, type DbOrTx } from '../../../../db/client';
 import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { maySeeOwnedRecord, requirePermission, type Actor } from '../../identity';
 import { expireDueReservations } from './expire';
 import { loadReservationView, type ReservationView } from './reservation-view';
 
@@ -11,7 +11,7 @@ const ReservationId = z.uuid();
 export async function loadOwnReservation(db: DbOrTx, actor: Actor, id: string): Promise<ReservationView> {
   const parsed = ReservationId.safeParse(id);
   const view = parsed.success ? await loadReservationView(db, parsed.data) : null;
-  if (!view || view.designer.id !== actor.userId) {
+  if (!view || !maySeeOwnedRecord('reservation', actor, view.designer.id)) {
     throw new AppError('not_found', `There is no reservation ${id} of yours. Your reservations are listed at /reservations.`);
   }
   return view;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '../../../../core/dates/storable-date';
 
 const optionalText = z
   .string()
@@ -19,6 +20,10 @@ const optionalDate = (bound: 'from' | 'to') =>
       const d = new Date(dayOnly ? `${v}T00:00:00.000Z` : v);
       if (Number.isNaN(d.getTime())) {
         ctx.addIssue({ code: 'custom', message: `expected a date such as 2025-03-01 or an ISO timestamp, got '${v}'` });
+        return z.NEVER;
+      }
+      if (!isStorableDate(d)) {
+        ctx.addIssue({ code: 'custom', message: `expected ${STORABLE_DATE_RANGE_TEXT}, got '${v}'; leave it out for no ${bound === 'from' ? 'start' : 'end'}` });
         return z.NEVER;
       }
       // A bare end date includes that whole day.
