@@ -2,7 +2,8 @@ import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 're
 import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '../../core/estimates/defaults-from-part';
 import { nearestPreferredValue, type ESeries } from '../../core/estimates/preferred-values';
 import { solveSelfBias } from '../../core/estimates/solve-self-bias';
-import { columnFormat, formatPlain } from '../../core/units/format-quantity';
+import { idssInDatasheetSign, vdsInDatasheetSign } from '../../core/units/datasheet-sign';
+import { columnFormat, formatMeasuredNumber, formatPlain } from '../../core/units/format-quantity';
 import type { estimateMixerProducts } from '../../lib/server/services/estimates/estimate-mixer';
 import type { estimateSelfBias } from '../../lib/server/services/estimates/self-bias';
 import type { estimateMatchedSet } from '../../lib/server/services/estimates/matched-set';
@@ -198,7 +199,7 @@ function PartCard({ o }: { o: PartOutcome }) {
         {part && (
           <span className="text-sm text-ink-soft">
             {part.device_type} ({part.channel.toUpperCase()}) · lot {part.lot ?? '—'} · fit #{part.fit_id} ({part.fit_review.replace('_', ' ')}) · IDSS{' '}
-            {formatQuantity(part.idss_a, 'A')} at {part.idss_vds_v} V · VP {v(part.vp_v)} · λ {part.lambda_per_v.toPrecision(3)} /V
+            {formatQuantity(idssInDatasheetSign(part.idss_a, part.channel), 'A', 4)} at VDS {formatQuantity(vdsInDatasheetSign(part.idss_vds_v, part.channel), 'V', 3)} · VP {v(part.vp_v)} · λ {formatMeasuredNumber(part.lambda_per_v, null, 3)[0]} /V
             {part.rs_ohm > 0 || part.rd_ohm > 0 ? ` · RS ${formatQuantity(part.rs_ohm, 'Ω')}, RD ${formatQuantity(part.rd_ohm, 'Ω')}` : ''}
           </span>
         )}

@@ -1,8 +1,9 @@
+import { formatPercent, formatPlain } from '../../core/units/format-quantity';
 import { sig as formatQuantity } from './sig';
 import type { SetResult } from './EstimatesWorkbench';
 
 function mv(x: number) {
-  return `${(x * 1e3).toFixed(2).replace('-', '\u2212')} mV`;
+  return `${formatPlain(x * 1e3, 2)} mV`;
 }
 
 /** Each set's parts at one operating point and what their spread means in two circuits. */
@@ -78,12 +79,12 @@ export function MatchedSetCard({ result }: { result: SetResult }) {
                         {p.a} / {p.b}
                       </td>
                       <td className="num">{mv(p.dvgs_v)}</td>
-                      <td className="num">{(p.gm_mismatch * 100).toFixed(2)} %</td>
-                      <td className="num">{p.idss_ratio.toFixed(3)}</td>
+                      <td className="num">{formatPercent(p.gm_mismatch, 2)}</td>
+                      <td className="num">{formatPlain(p.idss_ratio, 3)}</td>
                       <td className="num">{mv(p.input_offset_v)}</td>
                       <td className="num">{formatQuantity(p.drain_current_imbalance_a, 'A')}</td>
                       <td className="num">{p.output_offset_v === null ? '—' : mv(p.output_offset_v)}</td>
-                      <td className="num">{p.lo_leakage_relative_db === null ? 'none (perfect match)' : `${p.lo_leakage_relative_db.toFixed(1).replace('-', '\u2212')} dB`}</td>
+                      <td className="num">{p.lo_leakage_relative_db === null ? 'none (perfect match)' : `${formatPlain(p.lo_leakage_relative_db, 1)} dB`}</td>
                       <td className="num">{p.lo_leakage_current_a === null ? '—' : formatQuantity(p.lo_leakage_current_a, 'A')}</td>
                     </tr>
                   ))}

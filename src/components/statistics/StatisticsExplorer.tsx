@@ -4,7 +4,8 @@ import type { StatisticsOptions } from '../../lib/server/services/statistics/lis
 import type { TypeStatistics } from '../../lib/server/services/statistics/compute-report';
 import { formatDate } from '../../core/units/format-date';
 import { binShareGrid, type BinShareGrid } from '../../core/statistics/bin-share-grid';
-import { formatMeasured, formatNumber, formatPercent, formatQuantityRange, type QuantityUnit } from '../../core/units/format-quantity';
+import { vdsInDatasheetSign } from '../../core/units/datasheet-sign';
+import { formatMeasured, formatNumber, formatOpenRange, formatPercent, formatQuantityRange, formatSignificant, type QuantityUnit } from '../../core/units/format-quantity';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { ChartCard } from './chart-kit';
@@ -139,7 +140,9 @@ function cellShade(count: number, maxCount: number): CSSProperties {
 const rangeText = (r: { lo: number; hi: number } | null, unit: 'A' | 'V') => (r ? formatQuantityRange(r.lo, r.hi, unit, unit === 'A' ? 1 : 2) : 'all');
 
 /** Share per bin drawn over the plan's grid: IDSS across, VP down; shade by count. */
-function BinShareGridView({ grid, labelOf }: { grid: BinShareGrid; labelOf: (code: string) => string }) {
+function BinShareGridView({ grid, channel, labelOf }: { grid: BinShareGrid; channel: 'n' | 'p'; labelOf: (code: string) => string }) {
+  // Bin plans hold IDSS as a magnitude; headings show it in datasheet sign like every figure.
+  const idssText = (r: { lo: number; hi: number } | null) => (r && channel === 'p' ? rangeText({ lo: -r.lo, hi: -r.hi }, 'A') : rangeText(r, 'A'));
   return (
     <div>
       <div className="overflow-x-auto" data-testid="bin-share-grid">
@@ -149,7 +152,7 @@ function BinShareGridView({ grid, labelOf }: { grid: BinShareGrid; labelOf: (cod
               <th className="px-1 py-1 text-left font-semibold text-ink-soft whitespace-nowrap">VP ↓ · IDSS →</th>
               {grid.idss.map((r, i) => (
                 <th key={i} scope="col" className="px-1 py-1 font-normal text-ink-soft whitespace-nowrap [writing-mode:vertical-rl] rotate-180 h-24 align-bottom">
-                  {rangeText(r, 'A')}
+                  {idssText(r)}
                 </th>
               ))}
             </tr>
@@ -271,7 +274,7 @@ function YieldAndBins({ g, query }: { g: TypeStatistics; query: string }) {
         {g.bins.length === 0 ? (
           <Empty>No binned parts here{g.unbinned_count ? `: ${g.unbinned_count} parts have no bin yet` : ''}. Bins come from the type’s active bin plan.</Empty>
         ) : grid ? (
-          <BinShareGridView grid={grid} labelOf={(code) => g.bins.find((b) => b.code === code)?.label ?? code} />
+          <BinShareGridView grid={grid} channel={g.device_type.channel} labelOf={(code) => g.bins.find((b) => b.code === code)?.label ?? code} />
         ) : (
           <BinShareList g={g} maxShare={maxShare} />
         )}
@@ -355,8 +358,8 @@ function TypeGroup({ g, query }: { g: TypeStatistics; query: string }) {
         <h2>{t.name}</h2>
         <span className="tag-plain">{t.channel === 'n' ? 'N-channel' : 'P-channel'}</span>
         <span className="text-sm text-ink-soft">
-          {g.part_count} parts, {g.fitted_count} with a current fit · spec IDSS {shown(t.idss_min_a, 'idss_a')} to {shown(t.idss_max_a, 'idss_a')} mA at {t.vds_test_v} V, VP{' '}
-          {shown(t.vp_min_v, 'vp_v')} to {shown(t.vp_max_v, 'vp_v')} V
+          {g.part_count} parts, {g.fitted_count} with a current fit · spec IDSS {formatOpenRange(t.idss_min_a, t.idss_max_a, 'A', 1)} at VDS{' '}
+          {formatSignificant(vdsInDatasheetSign(t.vds_test_v, t.channel), 'V', 3)}, VP {formatOpenRange(t.vp_min_v, t.vp_max_v, 'V', 2)} (datasheet signs)
         </span>
       </header>
       {g.part_count === 0 ? (

@@ -1,4 +1,5 @@
 import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown, type Summary } from '../../../../core/statistics';
+import { idssInDatasheetSign } from '../../../../core/units/datasheet-sign';
 
 /** Pure: builds the statistics report from loaded rows. No I/O. */
 
@@ -83,6 +84,7 @@ export interface TypeStatistics {
     name: string;
     channel: 'n' | 'p';
     vds_test_v: number;
+    /** Spec limits in datasheet sign: a P-channel type's IDSS limits are negative (min ≤ max). */
     idss_min_a: number | null;
     idss_max_a: number | null;
     vp_min_v: number | null;
@@ -130,10 +132,14 @@ function autoBinCount(n: number): number {
   return Math.min(30, Math.max(5, Math.ceil(Math.log2(Math.max(n, 1)) + 1)));
 }
 
-function figureValue(fit: NonNullable<StatisticsPartRow['fit']>, key: FigureKey): number {
+/**
+ * A figure in datasheet sign for the type's channel: IDSS (stored as a magnitude) is negative
+ * for a P-channel type, like its VDS; VP is stored in datasheet sign already.
+ */
+function figureValue(fit: NonNullable<StatisticsPartRow['fit']>, key: FigureKey, channel: 'n' | 'p'): number {
   switch (key) {
     case 'idss_a':
-      return fit.idssA;
+      return idssInDatasheetSign(fit.idssA, channel);
     case 'vp_v':
       return fit.vpV;
     case 'gos_s':
@@ -144,7 +150,11 @@ function figureValue(fit: NonNullable<StatisticsPartRow['fit']>, key: FigureKey)
 }
 
 function limitsFor(type: StatisticsTypeInfo, key: FigureKey): { lsl: number | null; usl: number | null } {
-  if (key === 'idss_a') return { lsl: type.idssMinA, usl: type.idssMaxA };
+  if (key === 'idss_a') {
+    // Limits are stored as magnitudes; in datasheet sign a P-channel type's lower limit is −max.
+    if (type.channel === 'p') return { lsl: type.idssMaxA === null ? null : -type.idssMaxA, usl: type.idssMinA === null ? null : -type.idssMinA };
+    return { lsl: type.idssMinA, usl: type.idssMaxA };
+  }
   if (key === 'vp_v') {
     // Stored in datasheet sign; whichever is lower is the lower limit.
     const a = type.vpMinV;
@@ -206,7 +216,7 @@ export function buildTypeStatistics(args: {
   const fitted = rows.filter((r) => r.fit !== null) as (StatisticsPartRow & { fit: NonNullable<StatisticsPartRow['fit']> })[];
 
   const figures = Object.fromEntries(
-    FIGURES.map((f) => [f.key, figureStatistics(fitted.map((r) => figureValue(r.fit, f.key)), type, f.key, histogramBins)]),
+    FIGURES.map((f) => [f.key, figureStatistics(fitted.map((r) => figureValue(r.fit, f.key, type.channel)), type, f.key, histogramBins)]),
   ) as Record<FigureKey, FigureStatistics>;
 
   const statusCounts: Record<string, number> = {};
@@ -234,7 +244,7 @@ export function buildTypeStatistics(args: {
         trendLots.map((lot) => ({
           lotId: String(lot.id),
           receivedAt: lot.receivedAt,
-          values: (valuesByLot.get(lot.id) ?? []).map((r) => figureValue(r.fit!, f.key)),
+          values: (valuesByLot.get(lot.id) ?? []).map((r) => figureValue(r.fit!, f.key, type.channel)),
         })),
       ),
     ]),
@@ -264,8 +274,8 @@ export function buildTypeStatistics(args: {
       name: type.name,
       channel: type.channel,
       vds_test_v: type.vdsTestV,
-      idss_min_a: type.idssMinA,
-      idss_max_a: type.idssMaxA,
+      idss_min_a: limitsFor(type, 'idss_a').lsl,
+      idss_max_a: limitsFor(type, 'idss_a').usl,
       vp_min_v: type.vpMinV,
       vp_max_v: type.vpMaxV,
     },
@@ -276,7 +286,7 @@ export function buildTypeStatistics(args: {
     scatter: fitted.slice(0, SCATTER_LIMIT).map((r) => ({
       serial: r.serial,
       lot_code: r.lotCode,
-      idss_a: r.fit.idssA,
+      idss_a: idssInDatasheetSign(r.fit.idssA, type.channel),
       vp_v: r.fit.vpV,
       status: r.status,
     })),
