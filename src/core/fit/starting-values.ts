@@ -20,7 +20,7 @@ const SATURATION_MARGIN = 1.15;
 /**
  * Starting values from the saturation region: per curve a line ID = c + m·VDS, then
  * sqrt(c) against VGS (slope sqrt(BETA), x-intercept VTO) and LAMBDA = Σm / Σc.
- * The saturation boundary starts as the top 40 % of VDS and is refined twice with the VTO
+ * The saturation boundary starts as the top 40 % of each curve's VDS and is refined twice with the VTO
  * found. Returns null when fewer than 2 curves carry current.
  */
 export function estimateStartingValues(curves: readonly PreparedCurve[]): StartingValues | null {
@@ -33,7 +33,9 @@ export function estimateStartingValues(curves: readonly PreparedCurve[]): Starti
   let result: StartingValues | null = null;
   for (let pass = 0; pass < 3; pass++) {
     const lines = curves.map((c) => {
-      const threshold = pass === 0 ? 0.6 * vdsMaxV : Math.max(SATURATION_MARGIN * (c.vgsV - vtoV), 0);
+      // Pass 0: the top 40 % of the curve's own VDS range, so that curves a power limit cut
+      // short still give a first saturation line.
+      const threshold = pass === 0 ? 0.6 * curveMaxVdsV(c) : Math.max(SATURATION_MARGIN * (c.vgsV - vtoV), 0);
       const indices: number[] = [];
       for (let k = 0; k < c.vdsV.length; k++) if (c.included[k] === 1 && c.vdsV[k] > 0 && c.vdsV[k] >= threshold) indices.push(k);
       return fitLine(c.vdsV, c.idA, indices);
@@ -84,6 +86,12 @@ export function countConductingCurves(curves: readonly PreparedCurve[]): number 
   });
   const top = Math.max(...peaks);
   return peaks.filter((m) => m > CONDUCTING_SHARE * top).length;
+}
+
+function curveMaxVdsV(c: PreparedCurve): number {
+  let m = 0;
+  for (let k = 0; k < c.vdsV.length; k++) if (c.included[k] === 1 && c.vdsV[k] > m) m = c.vdsV[k];
+  return m;
 }
 
 function twoPointLine(xs: number[], ys: number[]) {
