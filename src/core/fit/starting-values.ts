@@ -1,4 +1,4 @@
-import { fitLine } from './line-fit.ts';
+import { fitLine, type LineFit } from './line-fit.ts';
 import type { PreparedCurve } from './prepared-curves.ts';
 
 export interface StartingValues {
@@ -32,14 +32,18 @@ export function estimateStartingValues(curves: readonly PreparedCurve[]): Starti
   let vtoV = NaN;
   let result: StartingValues | null = null;
   for (let pass = 0; pass < 3; pass++) {
-    const lines = curves.map((c) => {
+    const saturated: number[][] = [];
+    const fitted = curves.map((c) => {
       // Pass 0: the top 40 % of the curve's own VDS range, so that curves a power limit cut
       // short still give a first saturation line.
       const threshold = pass === 0 ? 0.6 * curveMaxVdsV(c) : Math.max(SATURATION_MARGIN * (c.vgsV - vtoV), 0);
       const indices: number[] = [];
       for (let k = 0; k < c.vdsV.length; k++) if (c.included[k] === 1 && c.vdsV[k] > 0 && c.vdsV[k] >= threshold) indices.push(k);
+      saturated.push(indices);
       return fitLine(c.vdsV, c.idA, indices);
     });
+    // Fewer than two lines (a transfer sweep: one or two VDS per VGS): single points stand in.
+    const lines = fitted.filter((l) => l && l.intercept > 0).length >= 2 ? fitted : fitted.map((l, i) => l ?? pointLine(curves[i], saturated[i]));
     let cMax = 0;
     for (const l of lines) if (l) cMax = Math.max(cMax, l.intercept);
     if (!(cMax > 0)) return result;
@@ -86,6 +90,16 @@ export function countConductingCurves(curves: readonly PreparedCurve[]): number 
   });
   const top = Math.max(...peaks);
   return peaks.filter((m) => m > CONDUCTING_SHARE * top).length;
+}
+
+/**
+ * A curve of a transfer sweep has one or two points, too few for a line: its highest-VDS
+ * saturated point then stands for the curve's saturation current (slope 0).
+ */
+function pointLine(c: PreparedCurve, indices: number[]): LineFit | null {
+  if (indices.length === 0 || indices.length >= 3) return null;
+  const k = indices[indices.length - 1];
+  return { slope: 0, intercept: c.idA[k], slopeStandardError: NaN, residualRms: 0, count: indices.length };
 }
 
 function curveMaxVdsV(c: PreparedCurve): number {
