@@ -201,6 +201,8 @@ export function normalizeSweep(
   }
   let maxVgs = -Infinity;
   let maxVgsLine = 0;
+  // Wide transfer format: the column of each fixed VDS.
+  const columnOfVds = new Map<number, number>();
   for (let i = 0; i < pointCount; i++) {
     const p = raw.partIndex[i];
     const vgs = nVgs(i);
@@ -216,6 +218,7 @@ export function normalizeSweep(
       l.idA.push(id);
       continue;
     }
+    if (raw.column[i] > 0) columnOfVds.set(flipVdsId ? noNegativeZero(-raw.vdsV[i]) : raw.vdsV[i], raw.column[i]);
     let curve = builders[p].get(vgs);
     if (!curve) {
       curve = { vgsV: vgs, column: raw.column[i], vds: [], id: [], line: [] };
@@ -249,7 +252,7 @@ export function normalizeSweep(
     curves.sort((a, b) => a.vgsV - b.vgsV);
     const partKind = kind ?? kindOfPart(curves);
     if (partKind === 'transfer') {
-      parts.push({ kind: 'transfer', curves, transferCurves: transferCurvesOf(curves, part, fileVds, file, partFirstLine[p]), notes });
+      parts.push({ kind: 'transfer', curves, transferCurves: transferCurvesOf(curves, part, fileVds, file, partFirstLine[p], columnOfVds), notes });
       continue;
     }
     parts.push({ kind: 'output', curves: checkOutputCurves(curves, part, fileVgs, fileVds, file, partFirstLine[p], maxAbsVds[p], notes), transferCurves: [], notes });
@@ -336,7 +339,7 @@ function checkOutputCurves(
       );
     }
   }
-  const fullReachV = Math.max(0, ...full.map((c) => c.points.vdsV[c.points.vdsV.length - 1]));
+  const fullReachV = full.reduce((m, c) => Math.max(m, c.points.vdsV[c.points.vdsV.length - 1]), 0);
   const kept: SweepCurve[] = [];
   for (const c of all) {
     const n = c.points.vdsV.length;
@@ -385,13 +388,14 @@ function transferCurvesOf(
   fileVds: (v: number) => string,
   file: string,
   firstLine: number,
+  columnOfVds: Map<number, number>,
 ): TransferCurve[] {
-  const byVds = new Map<number, { vgs: number[]; id: number[]; line: number[]; column: number | undefined }>();
+  const byVds = new Map<number, { vgs: number[]; id: number[]; line: number[] }>();
   for (const c of curves) {
     for (let k = 0; k < c.points.vdsV.length; k++) {
       const vds = c.points.vdsV[k];
       let t = byVds.get(vds);
-      if (!t) byVds.set(vds, (t = { vgs: [], id: [], line: [], column: c.sourceColumn }));
+      if (!t) byVds.set(vds, (t = { vgs: [], id: [], line: [] }));
       t.vgs.push(c.vgsV);
       t.id.push(c.points.idA[k]);
       t.line.push(c.points.sourceLine[k]);
@@ -400,7 +404,9 @@ function transferCurvesOf(
   const out: TransferCurve[] = [...byVds.entries()]
     .sort((a, b) => a[0] - b[0])
     .map(([vdsV, t]) => {
-      const curve: TransferCurve = { vdsV, firstLine: Math.min(...t.line), points: { vgsV: t.vgs, idA: t.id, sourceLine: t.line } };
+      const curve: TransferCurve = { vdsV, firstLine: t.line.reduce((m, l) => Math.min(m, l), Infinity), points: { vgsV: t.vgs, idA: t.id, sourceLine: t.line } };
+      const column = columnOfVds.get(vdsV);
+      if (column !== undefined) curve.sourceColumn = column;
       return curve;
     });
   const longest = out.reduce((m, t) => Math.max(m, t.points.vgsV.length), 0);
