@@ -1,7 +1,5 @@
 import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
 import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '../../core/estimates/defaults-from-part';
-import { nearestPreferredValue, type ESeries } from '../../core/estimates/preferred-values';
-import { solveSelfBias } from '../../core/estimates/solve-self-bias';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '../../core/units/datasheet-sign';
 import { columnFormat, formatMeasuredNumber, formatPlain } from '../../core/units/format-quantity';
 import type { estimateMixerProducts } from '../../lib/server/services/estimates/estimate-mixer';
@@ -78,6 +76,8 @@ interface BiasRow {
   gosS: number;
   gain: { bypassed: number; unbypassed: number } | null;
   saturated: boolean;
+  source: 'measured' | 'model';
+  vgsSigmaV: number | null;
   testId?: string;
 }
 
@@ -90,38 +90,16 @@ const fromBody = (label: string, p: SelfBiasPointBody): BiasRow => ({
   gosS: p.gos_s,
   gain: p.gain ? { bypassed: p.gain.bypassed_v_per_v, unbypassed: p.gain.unbypassed_v_per_v } : null,
   saturated: p.saturated,
+  source: p.source,
+  vgsSigmaV: p.vgs_sigma_v,
 });
 
 /**
  * The resistor the target needs rounded to the nearest IEC 60063 E24 and E96 values, and the
- * current each sets, solved with the same model as the server's answer (its `params`).
+ * current each sets, as the server solved them for the same part.
  */
 function preferredRows(r: SelfBiasResult): BiasRow[] {
-  const t = r.for_target_current;
-  if (!t) return [];
-  const params = { vtoV: r.params.vto_v, betaAPerV2: r.params.beta_a_per_v2, lambdaPerV: r.params.lambda_per_v, rsOhm: r.params.rs_ohm, rdOhm: r.params.rd_ohm };
-  return (['E24', 'E96'] as ESeries[]).flatMap((series) => {
-    const rs = nearestPreferredValue(t.source_resistor_ohm, series);
-    if (rs === null) return [];
-    try {
-      const p = solveSelfBias(params, { rsOhm: rs, vdsV: t.vds_v, channel: r.channel, ...(t.gain ? { drainLoadOhm: t.gain.drain_load_ohm } : {}) });
-      return [
-        {
-          label: `nearest ${series} (IEC 60063)`,
-          rsOhm: rs,
-          idA: p.idA,
-          vgsV: p.vgsV,
-          gmS: p.gmS,
-          gosS: p.gosS,
-          gain: p.gain ? { bypassed: p.gain.bypassed, unbypassed: p.gain.unbypassed } : null,
-          saturated: p.saturated,
-          testId: `preferred-${series}`,
-        },
-      ];
-    } catch {
-      return [];
-    }
-  });
+  return r.preferred_resistors.map((p) => ({ ...fromBody(`nearest ${p.series} (IEC 60063)`, p), testId: `preferred-${p.series}` }));
 }
 
 function SelfBiasTable({ r }: { r: SelfBiasResult }) {
@@ -158,6 +136,7 @@ function SelfBiasTable({ r }: { r: SelfBiasResult }) {
             <th className="num">Gain, RS bypassed (V/V)</th>
             <th className="num">Gain, RS unbypassed (V/V)</th>
             <th>Saturation</th>
+            <th>Figures from</th>
           </tr>
         </thead>
         <tbody>
@@ -172,6 +151,10 @@ function SelfBiasTable({ r }: { r: SelfBiasResult }) {
               <td className="num">{gainText(p.gain?.bypassed)}</td>
               <td className="num">{gainText(p.gain?.unbypassed)}</td>
               <td>{p.saturated ? <span className="tag-ok">saturated</span> : <span className="tag-fault">not saturated</span>}</td>
+              <td data-testid="figure-source">
+                {p.source === 'measured' ? 'measurements' : 'model (outside the measurements)'}
+                {p.vgsSigmaV !== null ? `, VGS ± ${formatQuantity(p.vgsSigmaV, 'V', 2)}` : ''}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -1,4 +1,5 @@
 import { fromNEquivalent, gmAtCurrentS, gosAtCurrentS, type Channel, type JfetParams } from '../jfet-model';
+import type { PartBasis, PartFigures } from '../operating-point/part-operating-figures';
 import { commonSourceGain } from './common-source-gain';
 import type { EstimateInputIssue } from './estimate-input-error';
 
@@ -20,9 +21,13 @@ export interface SelfBiasPoint {
   rsOhm: number;
   /** |VDS| at the part's terminals (V). */
   vdsV: number;
-  /** Intrinsic gm and gos at the bias (S). */
+  /** gm and gos at the part's terminals at the bias (S), as `partOperatingFigures` gives them. */
   gmS: number;
   gosS: number;
+  /** Where VGS, gm and gos came from: the part's measurements or its fitted model. */
+  source?: 'measured' | 'model';
+  /** One standard deviation of VGS (V), when known. */
+  vgsSigmaV?: number;
   /** True when the intrinsic VDS is at least VGS − VTO (the saturation equations apply). */
   saturated: boolean;
   gain?: SelfBiasGain;
@@ -74,6 +79,51 @@ export function selfBiasPoint(
       drainLoadOhm,
       bypassed: commonSourceGain({ gmS, gosS, drainLoadOhm, sourceDegenerationOhm: p.rsOhm, drainSeriesOhm: p.rdOhm }),
       unbypassed: commonSourceGain({ gmS, gosS, drainLoadOhm, sourceDegenerationOhm: rsOhm + p.rsOhm, drainSeriesOhm: p.rdOhm }),
+    };
+  }
+  return result;
+}
+
+/** A basis from either a bare model or a stored part's basis. */
+export function asPartBasis(part: JfetParams | PartBasis): PartBasis {
+  return 'params' in part ? part : { params: part };
+}
+
+/**
+ * A saturated bias point from `partOperatingFigures`' figures (the one source of operating-point
+ * figures). Gains: from the measurements, gm and gos are terminal quantities, so only the
+ * external source resistor degenerates; from the model, the intrinsic gm and gos with the
+ * part's own RS and RD as in `selfBiasPoint` (checked against ngspice's .ac gain).
+ */
+export function selfBiasPointFromFigures(
+  part: PartBasis,
+  f: PartFigures,
+  rsOhm: number,
+  channel: Channel,
+  drainLoadOhm: number | undefined,
+): SelfBiasPoint {
+  if (f.source === 'model') {
+    const m = selfBiasPoint(part.params, f.idA, rsOhm, f.vdsV, channel, drainLoadOhm);
+    return { ...m, vgsV: fromNEquivalent(channel, f.vgsV), gmS: f.gmS, gosS: f.gosS, source: 'model', vgsSigmaV: f.vgsSigmaV };
+  }
+  const result: SelfBiasPoint = {
+    idA: f.idA,
+    vgsV: fromNEquivalent(channel, f.vgsV),
+    rsOhm,
+    vdsV: f.vdsV,
+    gmS: f.gmS,
+    gosS: f.gosS,
+    saturated: true,
+    warnings: [],
+    source: 'measured',
+    vgsSigmaV: f.vgsSigmaV,
+  };
+  if (drainLoadOhm !== undefined) {
+    const gosS = Number.isFinite(f.gosS) ? f.gosS : 0;
+    result.gain = {
+      drainLoadOhm,
+      bypassed: commonSourceGain({ gmS: f.gmS, gosS, drainLoadOhm, sourceDegenerationOhm: 0, drainSeriesOhm: 0 }),
+      unbypassed: commonSourceGain({ gmS: f.gmS, gosS, drainLoadOhm, sourceDegenerationOhm: rsOhm, drainSeriesOhm: 0 }),
     };
   }
   return result;

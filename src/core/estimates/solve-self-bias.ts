@@ -1,6 +1,7 @@
 import type { Channel, JfetParams } from '../jfet-model';
+import { partOperatingFigures, type PartBasis } from '../operating-point/part-operating-figures';
 import { throwIfIssues, type EstimateInputIssue } from './estimate-input-error';
-import { paramIssues, selfBiasPoint, type SelfBiasPoint } from './self-bias-point';
+import { asPartBasis, paramIssues, selfBiasPoint, selfBiasPointFromFigures, type SelfBiasPoint } from './self-bias-point';
 
 export interface SelfBiasOptions {
   /** External source resistor (Ω), gate returned to ground: VGS = −ID·RS. */
@@ -11,17 +12,25 @@ export interface SelfBiasOptions {
   drainLoadOhm?: number;
   /** Sign of the returned VGS; 'n' by default. */
   channel?: Channel;
+  /** Compare temperature (°C) for a stored part's figures; 25 by default. */
+  compareAtC?: number;
 }
 
 /**
- * Self-bias operating point solved exactly from the saturation equation (N-equivalent signs):
+ * Self-bias operating point of a part (a bare model, or a stored part's basis): the figures come
+ * from `partOperatingFigures` — the part's measurements where the point lies inside them, else
+ * its model. Where even the model leaves the part out of saturation, the point is still solved
+ * from the model equation below and returned with `saturated: false` and a warning.
+ * The model equation (N-equivalent signs):
  *   ID = BETA·(|VTO| − ID·R)²·(1 + λ·(VDS − ID·(RS_part + RD_part))),  R = RS + RS_part,
  * since the intrinsic VGS is −ID·R. When the last factor is constant (λ = 0 or no fitted series
  * resistance) the smaller root of the quadratic is taken in its cancellation-free form
  *   ID = 2k·VP² / (1 + 2k|VP|R + sqrt(1 + 4k|VP|R)),  k = BETA·(1 + λ·VDS);
  * otherwise the unique root in [0, |VTO|/R] is found by bisection (the residual is monotonic).
  */
-export function solveSelfBias(params: JfetParams, options: SelfBiasOptions): SelfBiasPoint {
+export function solveSelfBias(part: JfetParams | PartBasis, options: SelfBiasOptions): SelfBiasPoint {
+  const basis = asPartBasis(part);
+  const params = basis.params;
   const { rsOhm, drainLoadOhm } = options;
   const vdsV = Math.abs(options.vdsV);
   const issues: EstimateInputIssue[] = paramIssues(params);
@@ -29,6 +38,9 @@ export function solveSelfBias(params: JfetParams, options: SelfBiasOptions): Sel
   if (!Number.isFinite(vdsV)) issues.push({ field: 'vdsV', message: `expected a finite VDS in V, got ${options.vdsV}` });
   if (drainLoadOhm !== undefined && !(drainLoadOhm >= 0)) issues.push({ field: 'drainLoadOhm', message: `expected a drain load ≥ 0 Ω, got ${drainLoadOhm}` });
   throwIfIssues(issues);
+
+  const e = partOperatingFigures(basis, { kind: 'self_bias', rsOhm, vdsV }, options.compareAtC);
+  if (e.usable) return selfBiasPointFromFigures(basis, e.figures, rsOhm, options.channel ?? 'n', drainLoadOhm);
 
   const beta = params.betaAPerV2;
   const lambda = params.lambdaPerV;

@@ -1,10 +1,11 @@
-import { fromNEquivalent, gmAtCurrentS, idssA as modelIdssA, vgsAtCurrentV, type Channel, type JfetParams } from '../jfet-model';
+import { fromNEquivalent, type Channel } from '../jfet-model';
 import { measureSetMismatch, type SetMismatch } from '../match/set-mismatch';
-import { solveSelfBias } from '../estimates/solve-self-bias';
+import { partOperatingFigures, type PartBasis } from '../operating-point/part-operating-figures';
 
 /**
  * A reserved set's figures before and after one of its parts changed (a refit, a retest, a
- * scrap), at the reservation's operating point, from the parts' current fits (level-1 model).
+ * scrap), at the reservation's operating point, from the parts' current fits through
+ * `partOperatingFigures` (measured where the sweep reaches the point).
  */
 export type ReservedOperatingPoint =
   | { kind: 'current'; idA: number; vdsV: number }
@@ -17,8 +18,8 @@ export interface ReservedPartInput {
   status: string;
   /** Figures stored when the set was reserved (VGS datasheet sign, gm and IDSS magnitudes). */
   matched: { vgsV: number; gmS: number; idssA: number };
-  /** The current fit's parameters; null when the part has none. */
-  params: JfetParams | null;
+  /** What the current fit's figures come from; null when the part has none. */
+  basis: PartBasis | null;
 }
 
 export interface ReservedPartFigures {
@@ -37,29 +38,29 @@ export interface ReservedSetFigures {
   now: SetMismatch | null;
 }
 
-function figuresNow(p: JfetParams, op: ReservedOperatingPoint, channel: Channel): { vgsV: number; gmS: number; idssA: number } | null {
-  const idss = modelIdssA(p, op.vdsV);
-  if (op.kind === 'idss') return { vgsV: 0, gmS: gmAtCurrentS(p, idss, op.vdsV), idssA: idss };
-  if (op.kind === 'self_bias') {
-    try {
-      const s = solveSelfBias(p, { rsOhm: op.rsOhm, vdsV: op.vdsV, channel });
-      return { vgsV: s.vgsV, gmS: s.gmS, idssA: idss };
-    } catch {
-      return null;
-    }
-  }
-  const vgsN = vgsAtCurrentV(p, op.idA, op.vdsV);
-  if (!Number.isFinite(vgsN) || vgsN > 0) return null;
-  return { vgsV: fromNEquivalent(channel, vgsN), gmS: gmAtCurrentS(p, op.idA, op.vdsV), idssA: idss };
+function figuresNow(
+  basis: PartBasis,
+  op: ReservedOperatingPoint,
+  channel: Channel,
+  compareAtC: number | undefined,
+): { vgsV: number; gmS: number; idssA: number } | null {
+  const e = partOperatingFigures(basis, op, compareAtC);
+  if (!e.usable) return null;
+  return { vgsV: fromNEquivalent(channel, e.figures.vgsV), gmS: e.figures.gmS, idssA: e.figures.idssA };
 }
 
-export function reservedSetFigures(parts: readonly ReservedPartInput[], op: ReservedOperatingPoint, channel: Channel): ReservedSetFigures {
+export function reservedSetFigures(
+  parts: readonly ReservedPartInput[],
+  op: ReservedOperatingPoint,
+  channel: Channel,
+  compareAtC?: number,
+): ReservedSetFigures {
   const out = parts.map((p) => ({
     serial: p.serial,
     role: p.role,
     status: p.status,
     was: p.matched,
-    now: p.params ? figuresNow(p.params, op, channel) : null,
+    now: p.basis ? figuresNow(p.basis, op, channel, compareAtC) : null,
   }));
   const was = measureSetMismatch(out.map((p) => ({ vgsV: p.was.vgsV, gmS: p.was.gmS, idssA: p.was.idssA })));
   const now = out.every((p) => p.now !== null) ? measureSetMismatch(out.map((p) => p.now!)) : null;

@@ -67,7 +67,7 @@ export async function estimateMatchedSet({ actor, input }: { actor: Actor | null
       try {
         const model = await loadPartModel(db, m.serial, 'serials');
         const point = withRequestFields(
-          () => sourceResistorForCurrent(model.params, body.target_drain_current_a, body.vds_v, { drainLoadOhm: body.drain_load_ohm, channel: model.channel }),
+          () => sourceResistorForCurrent(model.basis, body.target_drain_current_a, body.vds_v, { drainLoadOhm: body.drain_load_ohm, channel: model.channel }),
           SELF_BIAS_RENAMES,
         );
         parts.push({ serial: m.serial, role: m.role, device_type: model.deviceType, idss_a: model.idssA, matched: m.matched, operating_point: selfBiasPointBody(point), warnings: fitReviewWarnings(model), error: null });

@@ -1,5 +1,7 @@
 import { eq } from 'drizzle-orm';
 import type { Channel, JfetParams } from '../../../../core/jfet-model';
+import { partOperatingFigures, type PartBasis } from '../../../../core/operating-point/part-operating-figures';
+import { basisFromColumns } from '../parts/part-basis';
 import { schema, type DbOrTx } from '../../../../db/client';
 import { AppError } from '../../errors';
 
@@ -13,7 +15,9 @@ export interface PartModel {
   fitId: number;
   review: string;
   params: JfetParams;
-  /** IDSS magnitude at `idssVdsV` and VP in datasheet sign, from the fit. */
+  /** What `partOperatingFigures` computes the part's figures from. */
+  basis: PartBasis;
+  /** IDSS magnitude at `idssVdsV` (`partOperatingFigures`: measured where the sweep reaches it) and VP in datasheet sign. */
   idssA: number;
   idssVdsV: number;
   vpV: number;
@@ -22,10 +26,11 @@ export interface PartModel {
 /** Loads a part by serial with its current fit; 404 when unknown, 409 when it has no fit. */
 export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'): Promise<PartModel> {
   const rows = await db
-    .select({ part: schema.part, fit: schema.fit, type: schema.deviceType, lotCode: schema.lot.code })
+    .select({ part: schema.part, fit: schema.fit, type: schema.deviceType, lotCode: schema.lot.code, measuredAtC: schema.sweep.temperatureC })
     .from(schema.part)
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
     .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
     .where(eq(schema.part.serial, serial))
     .limit(1);
@@ -41,6 +46,8 @@ export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'
     });
   }
   const f = row.fit;
+  const basis = basisFromColumns(f, row.measuredAtC, { vtotcVPerC: row.type.vtotcVPerC, betatcePctPerC: row.type.betatcePctPerC });
+  const idss = partOperatingFigures(basis, { kind: 'idss', vdsV: f.idssVdsV });
   return {
     serial,
     deviceType: row.type.name,
@@ -49,8 +56,9 @@ export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'
     status: row.part.status,
     fitId: f.id,
     review: f.review,
-    params: { vtoV: f.vtoV, betaAPerV2: f.betaAPerV2, lambdaPerV: f.lambdaPerV, rsOhm: f.rsOhm, rdOhm: f.rdOhm },
-    idssA: f.idssA,
+    params: basis.params,
+    basis,
+    idssA: idss.usable ? idss.figures.idssA : f.idssA,
     idssVdsV: f.idssVdsV,
     vpV: f.vpV,
   };

@@ -1,4 +1,4 @@
-import { paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type SelfBiasPoint } from '../../../../core/estimates';
+import { nearestPreferredValue, paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type ESeries, type SelfBiasPoint } from '../../../../core/estimates';
 import type { Channel, JfetParams } from '../../../../core/jfet-model';
 import { getDb } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
@@ -17,6 +17,9 @@ export function selfBiasPointBody(p: SelfBiasPoint) {
     vds_v: p.vdsV,
     gm_s: p.gmS,
     gos_s: p.gosS,
+    /** Where VGS, gm and gos came from: the part's measurements, or its model (extrapolated). */
+    source: p.source ?? 'model',
+    vgs_sigma_v: p.vgsSigmaV !== undefined && Number.isFinite(p.vgsSigmaV) ? p.vgsSigmaV : null,
     saturated: p.saturated,
     gain: p.gain
       ? { drain_load_ohm: p.gain.drainLoadOhm, bypassed_v_per_v: p.gain.bypassed, unbypassed_v_per_v: p.gain.unbypassed }
@@ -51,18 +54,34 @@ export async function estimateSelfBias({ actor, input }: { actor: Actor | null; 
     ? { ...SELF_BIAS_RENAMES, 'params.vtoV': 'serial', 'params.betaAPerV2': 'serial', 'params.lambdaPerV': 'serial', 'params.rsOhm': 'serial', 'params.rdOhm': 'serial' }
     : { ...SELF_BIAS_RENAMES, 'params.vtoV': 'vp_v', 'params.betaAPerV2': 'idss_a', 'params.lambdaPerV': 'lambda_per_v' };
   const options = { drainLoadOhm: body.drain_load_ohm, channel };
+  // A stored part's figures come from its measurements where they reach the point (one source for every view).
+  const basis = stored ? stored.basis : params;
 
   const forTarget =
     body.target_drain_current_a === undefined
       ? null
-      : withRequestFields(() => sourceResistorForCurrent(params, body.target_drain_current_a!, body.vds_v, options), renames);
+      : withRequestFields(() => sourceResistorForCurrent(basis, body.target_drain_current_a!, body.vds_v, options), renames);
   const forResistor =
     body.source_resistor_ohm === undefined
       ? null
-      : withRequestFields(() => solveSelfBias(params, { rsOhm: body.source_resistor_ohm!, vdsV: body.vds_v, ...options }), renames);
+      : withRequestFields(() => solveSelfBias(basis, { rsOhm: body.source_resistor_ohm!, vdsV: body.vds_v, ...options }), renames);
+
+  // The target's resistor rounded to the nearest IEC 60063 E24 and E96 values, solved the same way.
+  const preferred = forTarget
+    ? (['E24', 'E96'] as ESeries[]).flatMap((series) => {
+        const rs = nearestPreferredValue(forTarget.rsOhm, series);
+        if (rs === null) return [];
+        try {
+          return [{ series, ...selfBiasPointBody(solveSelfBias(basis, { rsOhm: rs, vdsV: body.vds_v, ...options })) }];
+        } catch {
+          return [];
+        }
+      })
+    : [];
 
   return {
     model: SELF_BIAS_MODEL,
+    preferred_resistors: preferred,
     part: stored ? describePartModel(stored) : null,
     channel,
     params: { vto_v: params.vtoV, beta_a_per_v2: params.betaAPerV2, lambda_per_v: params.lambdaPerV, rs_ohm: params.rsOhm, rd_ohm: params.rdOhm },

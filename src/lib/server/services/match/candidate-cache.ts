@@ -1,15 +1,20 @@
 import type { MatchCandidate } from '../../../../core/match/match-types';
+import { unpackOperatingTable } from '../../../../core/operating-point/operating-table';
 import { getPool } from '../../../../db/client';
 
 /**
  * The in-stock parts of one device type with their current fitted models, held in this server
  * process so a match request does not read 100 000 rows from PostgreSQL each time.
  *
+ * Each candidate carries what `partOperatingFigures` needs: the fitted model, the measurements'
+ * operating table, the sweep's temperature and the type's temperature coefficients.
+ *
  * Freshness: every request first reads the type's stock version — count, Σ id, Σ current fit,
  * Σ bin, Σ lot and max(updated_at) over its in-stock parts — in one aggregate over the
  * (device_type_id, status) index, and rebuilds the entry when it differs. A part entering or
  * leaving stock changes the count or Σ id; a new fit, a bin change or a new lot changes its
- * sum; every status change also moves max(updated_at). A change that slips past this (two
+ * sum; every status change also moves max(updated_at); the type's temperature coefficients are
+ * part of the version too. A change that slips past this (two
  * moves that cancel in every sum inside one read) can only make a proposal offer a part that
  * is gone or miss one that arrived: the chosen parts are re-read from the database before they
  * are shown, and confirmation locks and re-checks every part, so a stale entry can never
@@ -33,12 +38,15 @@ const building = new Map<number, Promise<TypeStock>>();
 const VERSION_SQL = `
   SELECT count(*)::text || ':' || coalesce(sum(id), 0)::text || ':' || coalesce(sum(current_fit_id), 0)::text || ':' ||
          coalesce(sum(bin_id), 0)::text || ':' || coalesce(sum(lot_id), 0)::text || ':' ||
-         coalesce(to_char(max(updated_at) AT TIME ZONE 'UTC', 'YYYYMMDDHH24MISSUS'), '-') AS version
+         coalesce(to_char(max(updated_at) AT TIME ZONE 'UTC', 'YYYYMMDDHH24MISSUS'), '-') || ':' ||
+         (SELECT vtotc_v_per_c::text || ':' || betatce_pct_per_c::text FROM device_type WHERE id = $1) AS version
   FROM part WHERE device_type_id = $1 AND status = 'in_stock'`;
 
 const LOAD_SQL = `
-  SELECT p.id, p.serial, p.lot_id, p.bin_id, f.vto_v, f.beta_a_per_v2, f.lambda_per_v, f.rs_ohm, f.rd_ohm
-  FROM part p JOIN fit f ON f.id = p.current_fit_id
+  SELECT p.id, p.serial, p.lot_id, p.bin_id, f.vto_v, f.beta_a_per_v2, f.lambda_per_v, f.rs_ohm, f.rd_ohm,
+         f.operating_table, f.model_vgs_sigma_v, s.temperature_c, dt.vtotc_v_per_c, dt.betatce_pct_per_c
+  FROM part p JOIN fit f ON f.id = p.current_fit_id JOIN sweep s ON s.id = f.sweep_id
+  JOIN device_type dt ON dt.id = p.device_type_id
   WHERE p.device_type_id = $1 AND p.status = 'in_stock'
   ORDER BY p.id`;
 
@@ -62,8 +70,9 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
     const candidates: MatchCandidate[] = new Array(n);
     const slotBySerial = new Map<string, number>();
     for (let i = 0; i < n; i++) {
-      const [id, serial, lotId, binId, vto, beta, lambda, rs, rd] = rows.rows[i] as [
+      const [id, serial, lotId, binId, vto, beta, lambda, rs, rd, table, modelSigma, measuredAtC, vtotc, betatce] = rows.rows[i] as [
         number, string, number | null, number | null, number, number, number, number, number,
+        number[] | null, number | null, number | null, number, number,
       ];
       partIds[i] = id;
       binIds[i] = binId ?? 0;
@@ -73,6 +82,10 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
         lotId: lotId === null ? null : String(lotId),
         binCode: null,
         params: { vtoV: vto, betaAPerV2: beta, lambdaPerV: lambda, rsOhm: rs, rdOhm: rd },
+        table: unpackOperatingTable(table),
+        measuredAtC,
+        tempco: { vtotcVPerC: vtotc, betatcePctPerC: betatce },
+        modelSigmaV: modelSigma ?? NaN,
       };
     }
     return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date() };

@@ -1,4 +1,5 @@
 import { chooseMatchedSets } from '../../../../core/match/choose-matched-sets';
+import { DVGS_GUARD_SIGMAS } from '../../../../core/match/set-mismatch';
 import { MatchRequestError } from '../../../../core/match/match-request-error';
 import type { MatchCandidate, MatchResult, MatchTolerances, OperatingPoint } from '../../../../core/match/match-types';
 import { getDb, getPool, schema } from '../../../../db/client';
@@ -76,7 +77,7 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
   let fresh = new Map<number, FreshPart>();
   for (let attempt = 0; attempt < 3; attempt++) {
     try {
-      result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot } });
+      result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c });
     } catch (err) {
       if (err instanceof MatchRequestError) throw new AppError('invalid_input', `The match request cannot be answered as asked: ${err.message}.`);
       throw err;
@@ -124,8 +125,12 @@ function presentResult(
           role: p.role,
           ...(p.cascodeIndex !== undefined ? { cascode_index: p.cascodeIndex } : {}),
           vgs_v: sign * p.vgsV,
+          vgs_sigma_v: p.vgsSigmaV,
           gm_s: p.gmS,
+          gos_s: p.gosS,
           idss_a: p.idssA,
+          source: p.source,
+          temperature_shift_v: sign * p.temperatureShiftV,
           id_a: p.idA,
           vds_v: p.vdsV,
           vds_sat_v: p.vdsSatV,
@@ -135,6 +140,7 @@ function presentResult(
         };
       }),
       dvgs_v: s.dvgsV,
+      dvgs_sigma_v: s.dvgsSigmaV,
       gm_mismatch: s.gmMismatch,
       idss_mismatch: s.idssMismatch,
       cost: s.costs.total,
@@ -163,6 +169,8 @@ function presentResult(
     },
     same_lot: req.same_lot,
     bins: req.bins && req.bins.length ? req.bins : null,
+    temperature_c: req.temperature_c,
+    dvgs_guard_sigmas: DVGS_GUARD_SIGMAS,
     sets,
     total_cost: result.totalCost,
     guarantee: result.guarantee,

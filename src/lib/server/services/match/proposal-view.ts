@@ -10,9 +10,16 @@ export interface ProposedPart {
   /** Matched cascode sets: which of the two cascodes (0 or 1) the part is in. */
   cascode_index?: 0 | 1;
   vgs_v: number;
+  /** One standard deviation of vgs_v (V); 0 when the part's fit states none. */
+  vgs_sigma_v: number;
   gm_s: number;
-  /** Model IDSS at this part's VDS in the set. */
+  gos_s: number;
+  /** IDSS at this part's VDS in the set (measured where the sweep reaches it). */
   idss_a: number;
+  /** Where the figures came from: the part's measurements, or its fitted model (extrapolated). */
+  source: 'measured' | 'model';
+  /** VGS correction applied to bring the part from its sweep's temperature to the compare temperature (V, datasheet sign). */
+  temperature_shift_v: number;
   id_a: number;
   /** |VDS| this part sees in the set (a cascode's lower runs at −VGS of its upper). */
   vds_v: number;
@@ -26,6 +33,8 @@ export interface ProposedSet {
   index: number;
   parts: ProposedPart[];
   dvgs_v: number;
+  /** One standard deviation of dvgs_v (V). */
+  dvgs_sigma_v: number;
   gm_mismatch: number;
   idss_mismatch: number;
   /** Σ mismatch/tolerance over the constrained figures (≤ 3). */
@@ -58,6 +67,10 @@ export interface ProposalView {
   tolerances: ProposalTolerances;
   same_lot: boolean;
   bins: string[] | null;
+  /** Temperature the parts are compared at (°C). */
+  temperature_c: number;
+  /** A set meets the ΔVGS tolerance only when ΔVGS + this many σ(ΔVGS) stays within it. */
+  dvgs_guard_sigmas: number;
   sets: ProposedSet[];
   total_cost: number;
   guarantee: { kind: 'exact' | 'heuristic'; note: string };

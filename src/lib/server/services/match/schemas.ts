@@ -24,6 +24,8 @@ export const ProposalRequest = z
     max_idss_mismatch: Tolerance(1),
     cascode_margin_v: z.number().nonnegative().max(50).nullable().optional(),
     same_lot: z.boolean().default(false),
+    /** Parts are compared at this temperature (°C), each corrected from its sweep's temperature. */
+    temperature_c: z.number().min(-60).max(200).default(25),
     bins: z.array(z.string().trim().min(1)).max(200).optional(),
     purpose: z.string().trim().max(300).optional(),
   })

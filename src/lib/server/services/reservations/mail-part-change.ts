@@ -7,6 +7,7 @@ import { schema, type DbOrTx } from '../../../../db/client';
 import { serverEnv } from '../../env';
 import { sendMail, type OutgoingMail } from '../../mail';
 import type { StoredProposalResult } from '../match/create-proposal';
+import { loadPartBases } from '../parts/part-basis';
 import { reservationCode } from './reservation-view';
 
 export type PartChange = 'refitted' | 'marked for retest' | 'scrapped';
@@ -80,16 +81,18 @@ export async function partChangeMails(
       }
       // A cascode set is matched on its lower parts only.
       const matchedRoles = members.some((m) => m.rp.role === 'lower') ? members.filter((m) => m.rp.role === 'lower') : members;
+      const bases = await loadPartBases(tx, members.map((m) => m.rp.partId));
       const figures = reservedSetFigures(
         members.map((m) => ({
           serial: m.serial,
           role: m.rp.role,
           status: m.status,
           matched: { vgsV: m.rp.vgsV, gmS: m.rp.gmS, idssA: m.rp.idssA },
-          params: m.fit ? { vtoV: m.fit.vtoV, betaAPerV2: m.fit.betaAPerV2, lambdaPerV: m.fit.lambdaPerV, rsOhm: m.fit.rsOhm, rdOhm: m.fit.rdOhm } : null,
+          basis: bases.get(m.rp.partId)?.basis ?? null,
         })),
         op,
         channel,
+        result?.temperature_c,
       );
       const matched = figures.parts.filter((p) => matchedRoles.some((m) => m.serial === p.serial));
       const was = measureSetMismatch(matched.map((p) => p.was));

@@ -20,8 +20,12 @@ export interface ReservedPart {
   role: string;
   cascode_index?: 0 | 1;
   vgs_v: number;
+  /** One standard deviation of vgs_v (V), as proposed; null for older reservations. */
+  vgs_sigma_v: number | null;
   gm_s: number;
   idss_a: number;
+  /** Where the figures came from when the set was proposed. */
+  source: 'measured' | 'model' | null;
   bin_code: string | null;
   location: string | null;
   /** The part's status now (reserved, issued, back in stock after a cancel, ...). */
@@ -43,10 +47,14 @@ export interface ReservationView {
   shape: ProposalView['shape'] | null;
   operating_point: ProposalView['operating_point'] | null;
   tolerances: ProposalView['tolerances'] | null;
+  /** Temperature the parts were compared at (°C). */
+  temperature_c: number;
   sets: {
     index: number;
     parts: ReservedPart[];
     dvgs_v: number | null;
+    /** One standard deviation of dvgs_v (V). */
+    dvgs_sigma_v: number | null;
     gm_mismatch: number | null;
     idss_mismatch: number | null;
     cascode_headroom_v?: number;
@@ -104,6 +112,7 @@ export async function loadReservationView(db: DbOrTx, id: string): Promise<Reser
     shape: result?.shape ?? null,
     operating_point: result?.operating_point ?? null,
     tolerances: result?.tolerances ?? null,
+    temperature_c: result?.temperature_c ?? 25,
     sets: setIndexes.map((index) => {
       const stored = result?.sets.find((s) => s.index === index);
       return {
@@ -116,14 +125,17 @@ export async function loadReservationView(db: DbOrTx, id: string): Promise<Reser
             role: p.rp.role,
             ...(cascodeIndexOf.has(p.rp.partId) ? { cascode_index: cascodeIndexOf.get(p.rp.partId)! } : {}),
             vgs_v: p.rp.vgsV,
+            vgs_sigma_v: stored?.parts.find((x) => x.part_id === p.rp.partId)?.vgs_sigma_v ?? null,
             gm_s: p.rp.gmS,
             idss_a: p.rp.idssA,
+            source: stored?.parts.find((x) => x.part_id === p.rp.partId)?.source ?? null,
             bin_code: p.binCode,
             location: p.location,
             status: p.status,
             picked: picked.has(p.rp.partId),
           })),
         dvgs_v: stored?.dvgs_v ?? null,
+        dvgs_sigma_v: stored?.dvgs_sigma_v ?? null,
         gm_mismatch: stored?.gm_mismatch ?? null,
         idss_mismatch: stored?.idss_mismatch ?? null,
         ...(stored?.cascode_headroom_v !== undefined ? { cascode_headroom_v: stored.cascode_headroom_v } : {}),
