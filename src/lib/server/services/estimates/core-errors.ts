@@ -1,4 +1,5 @@
 import { EstimateInputError } from '../../../../core/estimates';
+import { describeIssue } from '../../../../core/field-path-words';
 import { AppError } from '../../errors';
 
 /** camelCase core field paths → the snake_case names of the request ("lo.amplitudeV" → "lo.amplitude_v"). */
@@ -20,7 +21,8 @@ export function withRequestFields<T>(run: () => T, renames: Record<string, strin
   } catch (err) {
     if (err instanceof EstimateInputError) {
       const fields = err.issues.map((i) => ({ field: prefix + requestFieldName(i.field, renames), message: i.message }));
-      throw new AppError('invalid_input', `The estimate cannot be computed — ${fields.map((f) => `${f.field}: ${f.message}`).join('; ')}.`, { fields });
+      const words = fields.map((f) => describeIssue(f.field.split('.'), f.message));
+      throw new AppError('invalid_input', `The estimate cannot be computed — ${words.join('; ')}.`, { fields });
     }
     throw err;
   }
