@@ -43,12 +43,24 @@ describe('upload through the Uppy dashboard', () => {
     await page.getByLabel('Operator').fill('e2e');
     const bad = { name: `E-${RUN}-bad.csv`, mimeType: 'text/csv', buffer: Buffer.from('vgs (V),vds (V),id (mA)\n-1,0,0\n-1,1,abc\n') };
     await page.locator('.uppy-Dashboard-input').first().setInputFiles([sweep(serialA, 1, true), sweep(serialB, 2, false), bad]);
-    await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+    await page.getByRole('button', { name: 'Upload 3 files' }).click();
     await page.locator(`[data-testid="file-${serialA}.csv"][data-state="fitted"]`).waitFor({ timeout: 30_000 });
     await page.locator(`[data-testid="file-${serialB}.csv"][data-state="fitted"]`).waitFor({ timeout: 30_000 });
     const badRow = page.locator(`[data-testid="file-E-${RUN}-bad.csv"][data-state="rejected"]`);
     await badRow.waitFor({ timeout: 30_000 });
     expect(await badRow.textContent()).toContain('line 3, column 3 (id (mA))');
+    // Issue 13, item 2: Uppy's own rows tell the truth — a tick for the two fitted files only,
+    // an error carrying the server's reason for the refused one.
+    await page.locator('.uppy-Dashboard-Item.is-error').waitFor({ timeout: 30_000 });
+    await page.waitForFunction(() => document.querySelectorAll('.uppy-Dashboard-Item.is-complete').length === 2, undefined, { timeout: 30_000 });
+    expect(await page.locator('.uppy-Dashboard-Item.is-error').count()).toBe(1);
+    expect(await page.locator('.uppy-Dashboard-Item.is-error .uppy-Dashboard-Item-errorDetails').getAttribute('aria-label')).toMatch(/^Rejected: .*line 3, column 3/);
+    expect(await page.locator('.uppy-Dashboard-Item.is-error.is-complete').count()).toBe(0);
+    expect(await page.getByText('Complete', { exact: true }).count()).toBe(0);
+    // A fitted file shows its curves in small, with IDSS, VP and bin.
+    const thumb = page.getByTestId(`thumb-${serialA}`);
+    await thumb.locator('svg polyline').first().waitFor();
+    expect(await thumb.textContent()).toMatch(/IDSS .*A · VP [−-]?\d.*V[\s\S]*bin /);
     await screenshot(page, 'upload-states');
   });
 

@@ -134,6 +134,14 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
     else next.add(k);
     setPending(next);
   };
+  const setPoints = (points: [number, number][], leaveOut: boolean) => {
+    const next = new Set(chosen);
+    for (const [c, p] of points) {
+      if (leaveOut) next.add(pointKey(c, p));
+      else next.delete(pointKey(c, p));
+    }
+    setPending(next);
+  };
 
   return (
     <div className="space-y-5">
@@ -175,7 +183,7 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
         <section className="card" aria-labelledby="curves-heading">
           <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
             <h2 id="curves-heading" className="text-lg">Curve family and fitted model</h2>
-            {mode === 'review' && <span className="text-xs text-ink-faint">Click a dot to leave it out of the refit, click again to put it back.</span>}
+            {mode === 'review' && <span className="text-xs text-ink-faint">Click a dot, or drag a box round several, to leave them out of the refit; again to put them back. Keyboard: Tab to the chart, arrows, Space.</span>}
           </div>
           {part.current_sweep ? (
             <>
@@ -185,6 +193,7 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
                 params={params}
                 excluded={shownExcluded}
                 onTogglePoint={mode === 'review' ? toggle : undefined}
+                onSetPoints={mode === 'review' ? setPoints : undefined}
               />
               {params && part.idss_a ? (
                 <>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { percent, q, when } from '../parts/figures';
 import { flagWord } from '../parts/part-types';
-import { useApi } from '../ui/api-client';
+import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import TabStrip from '../ui/TabStrip';
 
@@ -23,6 +23,35 @@ interface QueueItem {
 export default function ReviewQueue() {
   const [status, setStatus] = useState<'needs_review' | 'retest'>('needs_review');
   const { data, error, loading, reload } = useApi<{ total: number; items: QueueItem[] }>(`/api/review?status=${status}`);
+  const [chosen, setChosen] = useState<Set<string>>(new Set());
+  const [note, setNote] = useState('');
+  const [busy, setBusy] = useState(false);
+  const [message, setMessage] = useState<{ ok: boolean; text: string }>();
+  const canChoose = status === 'needs_review';
+  const items = data?.items ?? [];
+  const toggle = (serial: string) =>
+    setChosen((c) => {
+      const n = new Set(c);
+      if (n.has(serial)) n.delete(serial);
+      else n.add(serial);
+      return n;
+    });
+  async function acceptChosen() {
+    setBusy(true);
+    setMessage(undefined);
+    try {
+      const parts = items.filter((it) => chosen.has(it.serial)).map((it) => ({ serial: it.serial, ...(it.fit_id ? { fit_id: it.fit_id } : {}) }));
+      const out = await apiFetch<{ accepted: { serial: string }[] }>('/api/review/accept', { method: 'POST', json: { parts, ...(note.trim() ? { note: note.trim() } : {}) } });
+      setMessage({ ok: true, text: `Accepted and binned ${out.accepted.length} part${out.accepted.length === 1 ? '' : 's'}: ${out.accepted.map((a) => a.serial).join(', ')}.` });
+      setChosen(new Set());
+      setNote('');
+      reload();
+    } catch (e) {
+      setMessage({ ok: false, text: (e as Error).message });
+    } finally {
+      setBusy(false);
+    }
+  }
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-center gap-2">
@@ -33,7 +62,7 @@ export default function ReviewQueue() {
             { id: 'retest', label: 'Marked for retest' },
           ]}
           selected={status}
-          onSelect={setStatus}
+          onSelect={(s) => (setStatus(s), setChosen(new Set()))}
         />
         {data && <span className="ml-2 text-sm text-ink-soft">{data.total} part{data.total === 1 ? '' : 's'}</span>}
       </div>
@@ -42,10 +71,31 @@ export default function ReviewQueue() {
       {data && data.items.length === 0 && (
         <Empty>{status === 'needs_review' ? 'Nothing is waiting for review: every fit so far was clean or has been decided.' : 'No parts are waiting for a retest.'}</Empty>
       )}
+      {canChoose && items.length > 0 && (
+        <div className="card flex flex-wrap items-end gap-3 p-3">
+          <label className="flex min-h-11 items-center gap-2 text-sm">
+            <input
+              type="checkbox"
+              checked={chosen.size > 0 && chosen.size === items.length}
+              onChange={(e) => setChosen(e.target.checked ? new Set(items.map((it) => it.serial)) : new Set())}
+            />
+            Choose all {items.length} shown
+          </label>
+          <div className="min-w-0 flex-1">
+            <label className="field" htmlFor="accept-note">Note for the audit trail (optional)</label>
+            <input id="accept-note" className="input" value={note} onChange={(e) => setNote(e.target.value)} placeholder="e.g. looked at each curve; breakdown points only" />
+          </div>
+          <button type="button" className="btn-primary" disabled={busy || chosen.size === 0} onClick={() => void acceptChosen()}>
+            Accept {chosen.size || ''} chosen part{chosen.size === 1 ? '' : 's'}
+          </button>
+        </div>
+      )}
+      {message && <p className={message.ok ? 'notice-info' : 'notice-error'} role={message.ok ? 'status' : 'alert'}>{message.text}</p>}
       {data && data.items.length > 0 && (
         <table className="table-plain bg-paper-raised" aria-label="Review queue">
           <thead>
             <tr>
+              {canChoose && <th className="w-10"><span className="sr-only">Choose</span></th>}
               <th>Serial</th>
               <th>Type · lot</th>
               <th>Why it is here</th>
@@ -58,6 +108,13 @@ export default function ReviewQueue() {
           <tbody>
             {data.items.map((it) => (
               <tr key={it.serial} data-testid={`queue-${it.serial}`}>
+                {canChoose && (
+                  <td className="!p-0">
+                    <label className="flex h-11 w-11 items-center justify-center">
+                      <input type="checkbox" checked={chosen.has(it.serial)} onChange={() => toggle(it.serial)} aria-label={`Choose ${it.serial}`} />
+                    </label>
+                  </td>
+                )}
                 <td className="font-mono">
                   <a href={status === 'needs_review' ? `/review/${encodeURIComponent(it.serial)}` : `/parts/${encodeURIComponent(it.serial)}`}>{it.serial}</a>
                 </td>
