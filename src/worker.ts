@@ -22,7 +22,20 @@ process.on('uncaughtException', (err, origin) => {
   process.exit(70);
 });
 
-const boss = await getBoss();
+/** Starts pg-boss, waiting for the database when it is not up yet (a restart, a machine booting). */
+async function startBoss() {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await getBoss();
+    } catch (err) {
+      const waitS = Math.min(2 ** attempt, 15);
+      console.error(`[worker] the database cannot be reached (${storableText(err instanceof Error ? err.message : String(err), 300)}); trying again in ${waitS} s`);
+      await new Promise((r) => setTimeout(r, waitS * 1000));
+    }
+  }
+}
+
+const boss = await startBoss();
 const names = await registerJobHandlers(boss);
 console.log(`worker ready: ${names.join(', ')}`);
 

@@ -4,7 +4,7 @@ import { serverEnv } from '../lib/server/env';
 import { throttledErrorLog } from '../lib/server/throttled-log';
 import * as schema from './schema';
 
-const poolErrorLog = throttledErrorLog('[db] idle connection lost:');
+const poolErrorLog = throttledErrorLog('[db] connection lost:');
 
 export type Database = NodePgDatabase<typeof schema>;
 /** A transaction handle or the database itself: services accept either. */
@@ -21,6 +21,10 @@ export function getDb(): Database {
     // reported here; without a listener that would end the process. The pool drops the
     // connection and opens a new one for the next query.
     pool.on('error', poolErrorLog);
+    // The pool listens only to idle connections; a connection lost while checked out (in a
+    // transaction) reports here too, instead of as an uncaught 'error' event that ends the
+    // process. Its queries fail, and the pool drops it when it is released.
+    pool.on('connect', (client) => client.on('error', poolErrorLog));
     database = drizzle(pool, { schema });
   }
   return database;

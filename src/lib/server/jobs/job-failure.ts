@@ -1,4 +1,5 @@
-import { storableErrorMessage, storableText } from '../../../core/text/storable-text';
+import { storableText } from '../../../core/text/storable-text';
+import { describeFailure } from '../failure-text';
 
 /**
  * The error a job handler throws to pg-boss. pg-boss stores a failed job's error as jsonb
@@ -17,10 +18,10 @@ export class JobFailure extends Error {
 }
 
 function describe(error: unknown): string {
-  const message = storableErrorMessage(error, 1500);
+  const message = describeFailure(error, 1500);
   const cause = error instanceof Error ? (error as { cause?: unknown }).cause : undefined;
   if (cause === undefined) return message;
-  const causeMessage = storableErrorMessage(cause, 400);
+  const causeMessage = describeFailure(cause, 400);
   return message.includes(causeMessage) ? message : `${message} (cause: ${causeMessage})`;
 }
 

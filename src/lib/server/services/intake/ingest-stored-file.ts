@@ -3,10 +3,11 @@ import type { FitResult, FittedResult } from '../../../../core/fit/definitions';
 import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
 import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
 import { capLength, decodeSweepBytes, escapeForMessage, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError, type ParsedSweepFile, type SweepNote } from '../../../../core/sweep-file';
-import { storableErrorMessage, storableText } from '../../../../core/text/storable-text';
+import { storableText } from '../../../../core/text/storable-text';
 import { getDb, schema } from '../../../../db/client';
 import { insertRowsAsJson, jsonRecordset } from '../../../../db/insert-rows-as-json';
 import { writeAudit } from '../../audit';
+import { describeFailure } from '../../failure-text';
 import type { Actor } from '../../identity';
 import { readStoredUpload } from '../../storage/uploads-fs';
 import { assignBinsForParts } from '../bins/assign-bins';
@@ -127,10 +128,7 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
   if (failures.length) {
     // The rest of the batch is stored; the job is retried for these (done files are skipped).
     const first = failures[0].error;
-    throw new Error(
-      `upload file(s) ${failures.map((f) => f.uploadFileId).join(', ')} could not be ingested: ${first instanceof Error ? first.message : String(first)}`,
-      { cause: first },
-    );
+    throw new Error(`upload file(s) ${failures.map((f) => f.uploadFileId).join(', ')} could not be ingested: ${describeFailure(first)}`, { cause: first });
   }
   return uploadFileIds.map((id) => outcomes.get(id)!);
 }
@@ -500,7 +498,7 @@ async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[]> {
 export async function refuseAfterRepeatedFailure(uploadFileIds: number[], error: unknown): Promise<IngestOutcome[]> {
   if (uploadFileIds.length === 0) return [];
   const rows = await uploadFilesWithUploader(inArray(schema.uploadFile.id, uploadFileIds), eq(schema.uploadFile.state, 'queued'));
-  const why = storableErrorMessage(error, 1000);
+  const why = describeFailure(error);
   const out: IngestOutcome[] = [];
   for (const { file, upload, stationName } of rows) {
     const actor = uploaderOf(upload, stationName);
