@@ -1,6 +1,6 @@
 // npm test — the same set-up as `npm start`, against a fresh test database, then every suite:
 // unit (pure code), integration (real PostgreSQL, real HTTP, real SMTP sink) and browser
-// (Debian's Chromium driven by playwright-core).
+// (Debian's Chromium driven by playwright-core), then the fault drills (scripts/test-faults.mjs).
 import fs from 'node:fs';
 import path from 'node:path';
 import {
@@ -8,7 +8,7 @@ import {
   ensureSecrets, fail, log, portInUse, run, startChild, startCluster, waitForHttp, waitForPort, which,
 } from './setup-lib.mjs';
 
-// node scripts/test.mjs [unit|integration|e2e] [test files...]
+// node scripts/test.mjs [unit|integration|e2e|faults] [test files...]
 // SLUICE_TEST_DB, SLUICE_TEST_PORT, SLUICE_TEST_SMTP_PORT and SLUICE_BUILD_DIR let several
 // engineers run the suites side by side on one machine.
 const only = process.argv[2];
@@ -106,6 +106,12 @@ if (!only || only !== 'unit') {
   }
   for (const c of children) c.kill('SIGTERM');
   log(`server, worker and mail-sink logs of this run: ${path.relative(ROOT, logsDir)}/`);
+  if (!only || only === 'faults') {
+    // Their own PostgreSQL cluster and ports: the drills restart the database and kill processes.
+    log('running the fault drills');
+    const faultsEnv = { ...envAll, SLUICE_FAULTS_REPORT: path.join(reportsDir, 'faults.json') };
+    statuses.push(run(process.execPath, ['scripts/test-faults.mjs', ...files], { env: faultsEnv, allowFail: true }).status);
+  }
 }
 
 let passed = 0;

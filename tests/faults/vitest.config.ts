@@ -1,0 +1,11 @@
+import { defineConfig } from 'vitest/config';
+
+/** Fault drills: they kill and restart processes and their own PostgreSQL, one file at a time. */
+export default defineConfig({
+  test: {
+    include: ['tests/faults/**/*.test.ts'],
+    testTimeout: 240_000,
+    hookTimeout: 120_000,
+    fileParallelism: false,
+  },
+});
