@@ -4,6 +4,7 @@ import { closeDb, getDb, schema } from '../../src/db/client';
 import { eq } from 'drizzle-orm';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL, signIn } from '../helpers/http';
+import { waitForMail } from '../helpers/mail';
 import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
 
 /**
@@ -208,6 +209,78 @@ describe('pick lists: the filter lives in the address and the tabs answer arrow 
     expect(new URL(page.url()).searchParams.get('status')).toBe('cancelled');
     await page.keyboard.press('Home');
     expect(await page.getByRole('tab', { name: 'Open' }).getAttribute('aria-selected')).toBe('true');
+    await context.close();
+  });
+});
+
+describe('an invited person who sets a password is signed in (issue 13, item 12)', () => {
+  it('sets the password from the mailed link and lands on their start page, signed in', async () => {
+    const admin = await signIn('admin@demo.sluice.test');
+    const email = `phone-invitee-${Date.now()}@demo.sluice.test`;
+    expect((await admin.fetch('/api/admin/users', { method: 'POST', json: { email, name: 'Pia Phone', roles: ['stores'] } })).status).toBe(201);
+    const mail = await waitForMail(email, /invited/i);
+    const link = /(http:\/\/\S+\/set-password\?token=\S+)/.exec(mail.text)![1]!;
+    const context = await browser.newContext({ viewport: PHONE, hasTouch: true });
+    const page = await context.newPage();
+    await page.goto(`${BASE_URL}${new URL(link).pathname}${new URL(link).search}`);
+    expect(await page.getByTestId('link-email').textContent()).toBe(email);
+    await page.getByLabel('New password (10 characters or more)').fill('a-long-phone-password');
+    await page.getByLabel('Repeat it').fill('a-long-phone-password');
+    await Promise.all([page.waitForURL('**/home'), page.getByRole('button', { name: 'Set password' }).click()]);
+    await page.getByRole('heading', { name: 'Hello, Pia' }).waitFor();
+    await screenshot(page, 'phone-invitee-signed-in');
+    // The link is spent: opening it again says so instead of offering the form.
+    await page.goto(link.replace(/^http:\/\/[^/]+/, BASE_URL));
+    await page.getByText('This link is no longer valid').waitFor();
+    await context.close();
+  });
+});
+
+describe('review: box and keyboard point selection, several parts accepted at once (inspector)', () => {
+  it('leaves points out by keyboard and by dragging a box; accepts two chosen parts from the queue', async () => {
+    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const page = await context.newPage();
+    await signInThroughForm(page, 'inspector@demo.sluice.test', undefined, '/review');
+    await page.goto(`${BASE_URL}/review`);
+    await page.getByRole('table', { name: 'Review queue' }).waitFor();
+    const rows = page.locator('[data-testid^="queue-"]');
+    expect(await rows.count()).toBeGreaterThanOrEqual(3);
+    const serialOf = async (i: number) => (await rows.nth(i).getAttribute('data-testid'))!.replace('queue-', '');
+    const [first, second, third] = [await serialOf(0), await serialOf(1), await serialOf(2)];
+
+    // Keyboard on the third part's review page: Tab to the chart, arrows, Space.
+    await page.goto(`${BASE_URL}/review/${encodeURIComponent(third)}`);
+    const chart = page.locator('figure[aria-label="Measured curve family with the fitted model"]');
+    await chart.locator('circle[data-point]').first().waitFor();
+    await chart.focus();
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('Space');
+    expect(await page.getByTestId('point-cursor-text').textContent()).toMatch(/point 3 of \d+: .* left out of the fit$/);
+    await page.getByRole('button', { name: 'Refit without 1 point' }).waitFor();
+    // A box dragged over the top-right of the chart takes every point inside it.
+    const box = (await chart.locator('svg').first().boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.6, box.y + 4);
+    await page.mouse.down();
+    await page.mouse.move(box.x + box.width * 0.8, box.y + box.height * 0.5, { steps: 8 });
+    await page.mouse.move(box.x + box.width - 8, box.y + box.height * 0.6, { steps: 4 });
+    await page.mouse.up();
+    const refit = page.getByRole('button', { name: /^Refit without \d+ points$/ });
+    await refit.waitFor();
+    expect(Number(/(\d+)/.exec((await refit.textContent())!)![1])).toBeGreaterThan(3);
+    await screenshot(page, 'review-box-selected');
+
+    await page.goto(`${BASE_URL}/review`);
+    await page.getByRole('table', { name: 'Review queue' }).waitFor();
+    await page.getByLabel(`Choose ${first}`).check();
+    await page.getByLabel(`Choose ${second}`).check();
+    await page.getByLabel('Note for the audit trail (optional)').fill('checked in the browser test');
+    await page.getByRole('button', { name: 'Accept 2 chosen parts' }).click();
+    await page.getByText(/Accepted and binned 2 parts/).waitFor();
+    await page.locator(`[data-testid="queue-${first}"]`).waitFor({ state: 'detached' });
+    const [p] = await getDb().select().from(schema.part).where(eq(schema.part.serial, first));
+    expect(p!.status).toBe('accepted');
+    await screenshot(page, 'review-queue-accepted-two');
     await context.close();
   });
 });

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 
-/** Sets a password from an invitation or reset link's token. */
-export default function SetPasswordForm({ token }: { token: string }) {
+/** Sets a password from an invitation or reset link's token, then signs the person in. */
+export default function SetPasswordForm({ token, email }: { token: string; email: string }) {
   const [error, setError] = useState<string>();
   const [done, setDone] = useState(false);
   const [busy, setBusy] = useState(false);
@@ -25,15 +25,26 @@ export default function SetPasswordForm({ token }: { token: string }) {
       headers: { 'content-type': 'application/json' },
       body: JSON.stringify({ newPassword: password, token }),
     });
+    if (!res.ok) {
+      setBusy(false);
+      setError('This link is no longer valid (it may have been used or expired). Ask an admin for a new invitation.');
+      return;
+    }
+    // The password is set: sign in with it, so the person lands on their start page.
+    const signIn = await fetch('/api/auth/sign-in/email', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email, password }),
+    });
     setBusy(false);
-    if (res.ok) setDone(true);
-    else setError('This link is no longer valid (it may have been used or expired). Ask an admin for a new invitation.');
+    if (signIn.ok) window.location.assign('/home');
+    else setDone(true);
   }
 
   if (done) {
     return (
       <div className="notice-info" role="status">
-        Your password is set. <a href="/sign-in">Sign in</a>.
+        Your password is set, but signing you in did not work just now. <a href="/sign-in">Sign in</a> with it.
       </div>
     );
   }
