@@ -8,36 +8,17 @@
 // - API calls that Astro's cross-site check would refuse with a text/plain 403 get the same
 //   refusal as the API's JSON error. Astro's check stays on behind this one, for pages.
 import http from 'node:http';
-import proxyaddr from 'proxy-addr';
+import { clientAddressOf, compileTrust, isCrossSiteWrite, peerIsTrusted } from './client-address.mjs';
 
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 const { handler } = await import('./app.mjs');
 
-/**
- * SLUICE_TRUSTED_PROXIES: comma-separated addresses or CIDR ranges (e.g. `127.0.0.1,10.0.0.0/8`)
- * or proxy-addr's names `loopback`, `linklocal`, `uniquelocal`. Unset: no proxy is trusted.
- */
-function trustFromEnv(raw) {
-  const list = (raw ?? '').split(',').map((s) => s.trim()).filter(Boolean);
-  if (!list.length) return null;
-  try {
-    return proxyaddr.compile(list);
-  } catch (err) {
-    console.error(`SLUICE_TRUSTED_PROXIES is not valid (${err.message}). Give addresses or CIDR ranges separated by commas, e.g. 127.0.0.1,10.0.0.0/8.`);
-    process.exit(1);
-  }
-}
-const trust = trustFromEnv(process.env.SLUICE_TRUSTED_PROXIES);
-
-const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
-const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
-
-/** Astro's cross-site rule: a bodiless or form-like write must carry this server's own Origin. */
-function crossSite(req, protocol) {
-  if (SAFE_METHODS.has(req.method ?? 'GET')) return false;
-  const type = req.headers['content-type'];
-  if (type && !FORM_TYPES.some((t) => type.toLowerCase().includes(t))) return false;
-  return req.headers.origin !== `${protocol}://${req.headers.host ?? ''}`;
+let trust;
+try {
+  trust = compileTrust(process.env.SLUICE_TRUSTED_PROXIES);
+} catch (err) {
+  console.error(err.message);
+  process.exit(1);
 }
 
 function refuseCrossSite(req, res, protocol) {
@@ -55,11 +36,11 @@ function refuseCrossSite(req, res, protocol) {
 }
 
 function onRequest(req, res) {
-  const peerTrusted = trust !== null && trust(req.socket.remoteAddress ?? '', 0);
-  const client = trust ? proxyaddr(req, trust) : req.socket.remoteAddress;
+  const peerTrusted = peerIsTrusted(req, trust);
+  const client = clientAddressOf(req, trust);
   // Astro reads its client address from the first X-Forwarded-For value: leave it only the
   // address worked out here. The forwarded host and protocol count only from a trusted proxy.
-  req.headers['x-forwarded-for'] = client ?? '';
+  req.headers['x-forwarded-for'] = client;
   if (!peerTrusted) {
     delete req.headers['x-forwarded-host'];
     delete req.headers['x-forwarded-proto'];
@@ -67,7 +48,7 @@ function onRequest(req, res) {
   }
   const forwardedProto = peerTrusted ? String(req.headers['x-forwarded-proto'] ?? '').split(',')[0].trim() : '';
   const protocol = forwardedProto || (req.socket.encrypted ? 'https' : 'http');
-  if ((req.url ?? '').startsWith('/api/') && crossSite(req, protocol)) return refuseCrossSite(req, res, protocol);
+  if ((req.url ?? '').startsWith('/api/') && isCrossSiteWrite(req, protocol)) return refuseCrossSite(req, res, protocol);
   handler(req, res);
 }
 

@@ -1,7 +1,8 @@
 import fs from 'node:fs';
 
 /**
- * Makes the build's `server/entry.mjs` Sluice's own HTTP front (./front.mjs), with the node
+ * Makes the build's `server/entry.mjs` Sluice's own HTTP front (./front.mjs, with its helpers
+ * ./client-address.mjs beside it), with the node
  * adapter's entry renamed `app.mjs` (astro.config's `build.serverEntry`). Everything that runs
  * `<build>/server/entry.mjs` gets the front without knowing it.
  */
@@ -16,6 +17,7 @@ export function httpFront() {
       },
       'astro:build:done': () => {
         fs.copyFileSync(new URL('./front.mjs', import.meta.url), new URL('entry.mjs', serverDir));
+        fs.copyFileSync(new URL('./client-address.mjs', import.meta.url), new URL('client-address.mjs', serverDir));
       },
     },
   };

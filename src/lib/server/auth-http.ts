@@ -33,7 +33,7 @@ export async function toAuthErrorResponse(res: Response): Promise<Response> {
   const code = AUTH_STATUS_CODES[res.status] ?? (res.status >= 500 ? 'internal' : 'invalid_input');
   const message =
     res.status === 429
-      ? 'Too many sign-in attempts from this address in the last minute. Wait a minute, then try again.'
+      ? 'Too many requests to the sign-in service from this address in the last minute. Wait a minute, then try again.'
       : typeof body.message === 'string' && body.message
         ? body.message
         : `The sign-in service answered ${res.status}.`;
