@@ -3,6 +3,7 @@ import CurveFamilyChart from '../charts/CurveFamilyChart';
 import ResidualsChart from '../charts/ResidualsChart';
 import { pointKey } from '../charts/chart-data';
 import AuditTrail from '../audit/AuditTrail';
+import OperatingFiguresPanel from './OperatingFiguresPanel';
 import ReviewActions from '../review/ReviewActions';
 import { useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
@@ -259,6 +260,8 @@ export default function PartDetail({ serial, mode = 'view' }: { serial: string; 
           </p>
         )}
       </section>
+
+      {part.operating && <OperatingFiguresPanel serial={part.serial} channel={part.channel} operating={part.operating} />}
 
       <section className="card" aria-labelledby="history-heading">
         <h2 id="history-heading" className="mb-2 text-lg">Sweeps and retests</h2>

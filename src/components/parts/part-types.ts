@@ -1,5 +1,12 @@
 import { PART_STATUSES, describePartStatus } from '../../core/stock/part-transitions';
 import type { AuditEntryJson } from '../../lib/server/services/audit/describe-rows';
+import type { getPartBySerial } from '../../lib/server/services/parts/get';
+import type { getPartOperatingPoint } from '../../lib/server/services/parts/operating-point';
+
+/** The part page's operating-point section (IDSS at the test VDS, model against measurements). */
+export type PartOperatingJson = NonNullable<Awaited<ReturnType<typeof getPartBySerial>>['operating']>;
+/** GET /api/parts/{serial}/operating-point. */
+export type OperatingPointJson = Awaited<ReturnType<typeof getPartOperatingPoint>>;
 import type { ApiCurve } from '../charts/chart-data';
 
 export interface FlagDetail {
@@ -67,6 +74,7 @@ export interface PartJson {
     is_current: boolean;
     fits: { fit_id: number; fitted_at: string; idss_a: number; vp_v: number; rms_rel: number | null; flags: string[]; review: string; is_current: boolean }[];
   }[];
+  operating: PartOperatingJson | null;
   audit: AuditEntryJson[] | null;
 }
 
@@ -79,6 +87,7 @@ export const FLAG_WORDS: Record<string, string> = {
   too_few_curves: 'too few curves',
   parameter_at_bound: 'parameter at its limit',
   no_convergence: 'fit did not converge',
+  model_disagrees: 'model differs from measurements',
 };
 
 export function flagWord(code: string): string {

@@ -281,3 +281,14 @@ export function unpackOperatingTable(f: readonly (number | null)[] | null | unde
   }
   return t;
 }
+
+/** Each gate step's smoothed current at `vdsV` where the step was measured in saturation there. */
+export function stepCurrentsAt(t: OperatingTable, vdsV: number): { vgsV: number; idA: number }[] {
+  const x = vdsV - t.vdsRefV;
+  const out: { vgsV: number; idA: number }[] = [];
+  for (let k = 0; k < t.vgsV.length; k++) {
+    if (!(vdsV >= t.vdsLoV[k] - 1e-6 && vdsV <= t.vdsHiV[k] + 1e-6)) continue;
+    out.push({ vgsV: t.vgsV[k], idA: t.c0[k] + x * (t.c1[k] + x * t.c2[k]) });
+  }
+  return out;
+}

@@ -2,6 +2,10 @@ import { normalizeSerial } from '../../../../core/serial/normalize-serial';
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type { FitResult } from '../../../../core/fit/definitions';
 import { formatModelCard } from '../../../../core/fit/model-card';
+import { fromNEquivalent, intrinsicDrainCurrentA } from '../../../../core/jfet-model';
+import { stepCurrentsAt } from '../../../../core/operating-point/operating-table';
+import { partOperatingFigures } from '../../../../core/operating-point/part-operating-figures';
+import { loadPartBases } from './part-basis';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
@@ -125,6 +129,47 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
     review_note: null, fitted_at: null, standard_errors: null,
   };
 
+  const stored = current ? (await loadPartBases(db, [part.id])).get(part.id) : undefined;
+  const sign = (x: number) => fromNEquivalent(type.channel, x);
+  let operating = null;
+  if (stored && current) {
+    const vdsTest = current.idssVdsV;
+    const idss = partOperatingFigures(stored.basis, { kind: 'idss', vdsV: vdsTest });
+    const d = current.detail as Partial<FitResult>;
+    const agreement = d.status === 'fitted' ? (d.modelAgreement ?? null) : null;
+    const steps = stored.basis.table ? stepCurrentsAt(stored.basis.table, vdsTest) : [];
+    const p = stored.basis.params;
+    const top = steps.length ? Math.max(...steps.map((x) => x.vgsV)) : 0;
+    const modelCurve = Array.from({ length: 41 }, (_, i) => {
+      const vgs = p.vtoV + ((top - p.vtoV) * i) / 40;
+      return { vgs_v: sign(vgs), id_a: intrinsicDrainCurrentA(p, vgs, vdsTest) };
+    });
+    operating = {
+      /** IDSS at the test VDS, compared at 25 °C: the same figure every set view shows at this VDS. */
+      idss_a: idss.usable ? idss.figures.idssA : null,
+      idss_source: idss.usable ? idss.figures.source : null,
+      idss_vds_v: sign(vdsTest),
+      temperature_c: idss.usable ? idss.figures.temperatureC : 25,
+      measured_at_c: stored.basis.measuredAtC ?? null,
+      model_agreement: agreement
+        ? {
+            vds_v: sign(agreement.vdsTestV),
+            threshold_v: agreement.thresholdV,
+            max_disagreement_v: agreement.maxDisagreementV,
+            flagged: agreement.flagged,
+            points: agreement.points.map((x) => ({
+              fraction: x.fraction,
+              id_a: x.idA,
+              vgs_measured_v: sign(x.vgsMeasuredV),
+              vgs_model_v: sign(x.vgsModelV),
+              vgs_sigma_v: x.vgsSigmaV,
+            })),
+          }
+        : null,
+      transfer: { measured: steps.map((x) => ({ vgs_v: sign(x.vgsV), id_a: x.idA })), model: modelCurve },
+    };
+  }
+
   return {
     serial: part.serial,
     channel: type.channel,
@@ -182,6 +227,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
         is_current: f.id === part.currentFitId,
       })),
     })),
+    operating,
     audit,
   };
 }
