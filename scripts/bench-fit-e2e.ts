@@ -59,7 +59,7 @@ if (process.argv.includes('--build') || !fs.existsSync(path.join(ROOT, BUILD_DIR
 const { getDb, closeDb, getPool } = await import('../src/db/client');
 const { createStationToken } = await import('../src/lib/server/services/stations/create');
 const { FIT_BATCH_SIZE } = await import('../src/lib/server/jobs/fit-upload-file');
-const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/lib/server/services/intake/simulated-sweep');
+const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/core/intake/simulated-sweep');
 void getDb;
 const station = await createStationToken({ actor: { userId: null, stationId: null, label: 'bench', permissions: ['stations:manage'] }, input: { name: 'bench station' } });
 

@@ -84,7 +84,7 @@ if (process.argv.includes('--build') || !fs.existsSync(path.join(ROOT, BUILD_DIR
 
 // ---------------------------------------------------------------- 100 000 parts, straight into SQL
 const { getPool, closeDb } = await import('../src/db/client');
-const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/lib/server/services/intake/simulated-sweep');
+const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/core/intake/simulated-sweep');
 const pool = getPool();
 const q = (text: string, values: unknown[] = []) => pool.query(text, values);
 const t0 = performance.now();

@@ -3,7 +3,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '../../src/db/client';
 import type { Actor } from '../../src/lib/server/identity';
 import { ingestStoredFiles } from '../../src/lib/server/services/intake/ingest-stored-file';
-import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
 import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
 
 /**

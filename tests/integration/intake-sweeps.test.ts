@@ -4,7 +4,7 @@ import { BASE_URL, signIn, type Session } from '../helpers/http';
 import { closeDb, getDb, schema } from '../../src/db/client';
 import { idssA } from '../../src/core/jfet-model';
 import { MAX_SWEEP_FILE_BYTES } from '../../src/core/sweep-file';
-import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
 
 /**
  * Sweep intake end to end: POST /api/sweeps (station token and inspector), the pg-boss worker

@@ -5,7 +5,7 @@ import type { Actor } from '../../src/lib/server/identity';
 import { getBoss, stopBoss } from '../../src/lib/server/jobs/boss';
 import { fitUploadFiles } from '../../src/lib/server/jobs/fit-upload-file';
 import { JobFailure } from '../../src/lib/server/jobs/job-failure';
-import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
 import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
 
 /**
