@@ -10,7 +10,7 @@ import type { PartJson } from '../parts/part-types';
 import { q } from '../parts/figures';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice } from '../ui/states';
-import { uppyVerdict, unknownLotOf } from '../../core/intake/upload-verdict';
+import { retryWords, uppyVerdict, unknownLotOf } from '../../core/intake/upload-verdict';
 
 interface FileStatus {
   id: number;
@@ -20,6 +20,7 @@ interface FileStatus {
   error_code: string | null;
   serials: string[];
   duplicate_of: { file_id: number; upload_id: string; name: string } | null;
+  retry: { attempt: number; attempts: number; next_at: string | null } | null;
 }
 interface UploadStatus {
   upload_id: string;
@@ -185,12 +186,14 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
     uppy.on('files-added', refresh);
     uppy.on('file-removed', refresh);
     uppy.on('upload', refresh);
+    uppy.on('complete', refresh);
     return () => {
       uppy.off('upload-success', onSuccess as never);
       uppy.off('upload-error', onError);
       uppy.off('files-added', refresh);
       uppy.off('file-removed', refresh);
       uppy.off('upload', refresh);
+      uppy.off('complete', refresh);
       uppy.destroy();
     };
   }, [uppy]);
@@ -293,6 +296,14 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
           note={`CSV or TSV sweep files, up to ${MAX_SWEEP_FILE_BYTES / (1024 * 1024)} MiB each; long or wide format`}
           disableStatusBar
           hideRetryButton
+          locale={{
+            strings: {
+              // Uppy's "Upload complete" only means the bytes arrived; the verdict is each file's own.
+              uploadComplete: 'Files sent: each shows what the server made of it',
+              processingXFiles: { 0: 'Fitting %{smart_count} file on the server', 1: 'Fitting %{smart_count} files on the server' },
+              error: 'Some files were refused: see each file',
+            },
+          }}
         />
         <div className="flex flex-wrap items-center gap-3">
           <button type="button" className="btn-primary" disabled={pending === 0} onClick={() => (setRequestError(undefined), void uppy.upload())}>
@@ -322,6 +333,7 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
                   <span className="text-ink-soft">
                     {s.counts.fitted} fitted · {s.counts.needs_review} need review · {s.counts.rejected} rejected · {s.counts.queued} queued
                     {s.done ? '' : ' — fitting…'}
+                    {s.files.some((f) => f.retry) ? ` (${s.files.filter((f) => f.retry).length} being retried after a failure)` : ''}
                   </span>
                 ) : (
                   <span className="text-ink-faint">waiting for the server…</span>
@@ -340,6 +352,7 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
                       <span>
                         <span className={STATE_WORDS[f.state][1]}>{STATE_WORDS[f.state][0]}</span>
                         {f.duplicate_of && <span className="block text-xs text-ink-faint">same bytes as {f.duplicate_of.name}; no second sweep</span>}
+                        {f.retry && <span className="block text-xs text-ink-faint" data-testid="file-retry">{retryWords(f.retry)}</span>}
                       </span>
                       <div className="min-w-0 text-sm">
                         {f.reason && <p className={f.state === 'rejected' ? 'text-state-fault' : 'text-state-review'}>{f.reason}</p>}

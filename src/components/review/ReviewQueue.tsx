@@ -81,7 +81,7 @@ export default function ReviewQueue() {
             />
             Choose all {items.length} shown
           </label>
-          <div className="min-w-0 flex-1">
+          <div className="w-full min-w-0 sm:w-auto sm:flex-1">
             <label className="field" htmlFor="accept-note">Note for the audit trail (optional)</label>
             <input id="accept-note" className="input" value={note} onChange={(e) => setNote(e.target.value)} placeholder="e.g. looked at each curve; breakdown points only" />
           </div>

@@ -155,7 +155,7 @@ export default function StockCount() {
               {count.found.map((s) => (
                 <li key={s} className="flex items-center justify-between gap-2" data-serial={s}>
                   <span className="font-mono">{s}</span>
-                  {!done && <button type="button" className="btn-quiet py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
+                  {!done && <button type="button" className="btn-quiet min-w-11 justify-center py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
                 </li>
               ))}
             </Group>
@@ -172,7 +172,7 @@ export default function StockCount() {
               {count.unknown.map((s) => (
                 <li key={s} className="flex items-center justify-between gap-2">
                   <span className="font-mono">{s}</span>
-                  {!done && <button type="button" className="btn-quiet py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
+                  {!done && <button type="button" className="btn-quiet min-w-11 justify-center py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
                 </li>
               ))}
             </Group>

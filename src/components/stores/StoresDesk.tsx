@@ -49,7 +49,7 @@ function AwaitingLots({ onReceived }: { onReceived: () => void }) {
                 <td className="num">{l.accepted}{l.unbinned > 0 && <span className="tag-review ml-1" title="no bin yet">{l.unbinned} unbinned</span>}</td>
                 <td className="text-right">
                   {l.lot_id !== null && (
-                    <button type="button" className="btn-quiet py-0.5" disabled={l.unbinned === l.accepted} onClick={() => void receiveLot(l)} aria-label={`Receive all of lot ${l.lot}`}>Receive lot</button>
+                    <button type="button" className="btn-quiet whitespace-nowrap py-0.5" disabled={l.unbinned === l.accepted} onClick={() => void receiveLot(l)} aria-label={`Receive all of lot ${l.lot}`}>Receive lot</button>
                   )}
                 </td>
               </tr>
