@@ -186,6 +186,8 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/api\/bin-plans/, need: 'binPlans:read' },
   { pattern: /^\/dev\/mail/, need: 'devMail:read' },
   { pattern: /^\/api\/sweeps\/?$/, methods: ['POST'], need: 'sweeps:upload' },
+  // Mailing a lot's summary to its supplier is a person's act on the lot, not a station's.
+  { pattern: /^\/api\/uploads\/[^/]+\/summary-mail\/?$/, need: 'lots:create' },
   { pattern: /^\/(upload|api\/uploads)/, need: 'sweeps:upload' },
   { pattern: /^\/(review|api\/review)/, need: 'fits:review' },
   { pattern: /^\/api\/lots/, methods: ['POST'], need: 'lots:create' },
