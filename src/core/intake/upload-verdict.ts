@@ -12,10 +12,10 @@ export type UppyVerdict =
   | { kind: 'held'; message: string }
   | { kind: 'error'; message: string };
 
-export function uppyVerdict(file: { state: FileState; reason: string | null }): UppyVerdict {
+export function uppyVerdict(file: { state: FileState; reason: string | null; retry?: { attempt: number; attempts: number } | null }): UppyVerdict {
   switch (file.state) {
     case 'queued':
-      return { kind: 'working', message: 'Fitting on the server…' };
+      return { kind: 'working', message: file.retry ? `Fitting on the server… ${retryWords(file.retry)}` : 'Fitting on the server…' };
     case 'fitted':
       return { kind: 'done', message: 'Fitted' };
     case 'needs_review':
@@ -23,6 +23,11 @@ export function uppyVerdict(file: { state: FileState; reason: string | null }): 
     case 'rejected':
       return { kind: 'error', message: `Rejected: ${file.reason ?? 'no reason given'}` };
   }
+}
+
+/** How a queued file that is being tried again is described: "retrying, attempt 2 of 5". */
+export function retryWords(retry: { attempt: number; attempts: number }): string {
+  return `retrying, attempt ${retry.attempt} of ${retry.attempts}`;
 }
 
 /** The lot code a file was refused for, when the refusal is an unknown lot; else null. */

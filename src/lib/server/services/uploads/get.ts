@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
 import { requirePermission, type Actor } from '../../identity';
+import { fitRetries, type FitRetry } from '../../jobs/fit-attempts';
 import type { SweepNoteJson } from '../intake/ingest-stored-file';
 
 export interface UploadFileStatus {
@@ -22,6 +23,8 @@ export interface UploadFileStatus {
    * left out of the fit, a short curve kept or dropped), per part serial.
    */
   notes: { serial: string; code: string; vgs_v: number | null; lines: number[]; message: string }[];
+  /** A queued file whose fitting failed before (an error, or its worker died) and is being tried again; else null. */
+  retry: FitRetry | null;
 }
 
 /**
@@ -57,6 +60,9 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
     notesByFile.set(n.uploadFileId, list);
   }
 
+  const queuedIds = [...new Set(sourceIds.filter((id, i) => (files[i].duplicateOfId !== null ? byId.get(id)?.state : files[i].state) === 'queued'))];
+  const retries = await fitRetries(queuedIds);
+
   const out: UploadFileStatus[] = files.map((f) => {
     const o = f.duplicateOfId !== null ? byId.get(f.duplicateOfId) : undefined;
     const src = o ?? f;
@@ -72,6 +78,7 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
       duplicate_of: o ? { file_id: o.id, upload_id: o.uploadId, name: o.originalName } : null,
       finished_at: (src.finishedAt ?? null)?.toISOString() ?? null,
       notes: notesByFile.get(src.id) ?? [],
+      retry: src.state === 'queued' ? (retries.get(src.id) ?? null) : null,
     };
   });
   const counts = { queued: 0, fitted: 0, needs_review: 0, rejected: 0 };
