@@ -1,8 +1,21 @@
 import { useState } from 'react';
 import type { ReservationView } from '../../lib/server/services/reservations/reservation-view';
-import { SHAPE_WORDS, STATUS_TAG, amps, dateTime, millivolts, percent, relativeTo, roleLabel, siemens, volts } from '../match/figures';
+import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
+import { columnFormat } from '../../core/units/format-quantity';
+import { SHAPE_WORDS, STATUS_TAG, amps, dateTime, millivolts, percent, relativeTo, roleLabel, volts } from '../match/figures';
 import { apiFetch, useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
+
+type SetRow = { parts: { vgs_v: number; gm_s: number; idss_a: number }[] };
+const channelOf = (r: { device_type: { channel: 'n' | 'p' } | null }): 'n' | 'p' => r.device_type?.channel ?? 'n';
+/** One unit per column over a set's parts; IDSS in datasheet sign. */
+function setColumns(s: SetRow, channel: 'n' | 'p') {
+  return {
+    vgs: columnFormat(s.parts.map((p) => p.vgs_v), 'V', 4, 1e-4),
+    gm: columnFormat(s.parts.map((p) => p.gm_s), 'S', 3),
+    idss: columnFormat(s.parts.map((p) => idssInDatasheetSign(p.idss_a, channel)), 'A', 3),
+  };
+}
 
 function describeOp(r: ReservationView): string {
   const op = r.operating_point;
@@ -136,9 +149,9 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
                   <th>Role</th>
                   <th>Bin</th>
                   <th>Location</th>
-                  <th className="num !text-right">VGS</th>
-                  <th className="num !text-right">gm</th>
-                  <th className="num !text-right">IDSS</th>
+                  <th className="num !text-right">VGS ({setColumns(s, channelOf(r)).vgs.unit})</th>
+                  <th className="num !text-right">gm ({setColumns(s, channelOf(r)).gm.unit})</th>
+                  <th className="num !text-right">IDSS ({setColumns(s, channelOf(r)).idss.unit})</th>
                   <th>Now</th>
                 </tr>
               </thead>
@@ -149,9 +162,9 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
                     <td>{roleLabel(p.role, p.cascode_index)}</td>
                     <td>{p.bin_code ?? '—'}</td>
                     <td>{p.location ?? '—'}</td>
-                    <td className="num">{volts(p.vgs_v, 4)}</td>
-                    <td className="num">{siemens(p.gm_s, 3)}</td>
-                    <td className="num">{amps(p.idss_a, 3)}</td>
+                    <td className="num">{setColumns(s, channelOf(r)).vgs.number(p.vgs_v)}</td>
+                    <td className="num">{setColumns(s, channelOf(r)).gm.number(p.gm_s)}</td>
+                    <td className="num">{setColumns(s, channelOf(r)).idss.number(idssInDatasheetSign(p.idss_a, channelOf(r)))}</td>
                     <td>
                       <span className={STATUS_TAG[p.status] ?? 'tag-plain'}>{PART_STATUS[p.status] ?? p.status.replace('_', ' ')}</span>
                       {p.picked && p.status === 'reserved' && <span className="ml-1 text-xs text-ink-faint">picked</span>}
