@@ -72,6 +72,8 @@ function recordType(sqlType: string): string {
 
 function valueAsJson(value: unknown): string {
   if (value === null || value === undefined) return 'null';
+  // bytea travels in PostgreSQL's hex text form.
+  if (value instanceof Uint8Array) return `"\\\\x${Buffer.from(value.buffer, value.byteOffset, value.byteLength).toString('hex')}"`;
   if (typeof value === 'number' && !Number.isFinite(value)) return `"${value}"`;
   return JSON.stringify(value) ?? 'null';
 }

@@ -11,7 +11,7 @@ import type { CurveFamily } from '../../src/core/fit/definitions';
 import { fitCurveFamily } from '../../src/core/fit/fit-curve-family';
 import { toNEquivalent, vgsAtCurrentV } from '../../src/core/jfet-model';
 import { partOperatingFigures, type PartBasis } from '../../src/core/operating-point/part-operating-figures';
-import { packOperatingTable, unpackOperatingTable } from '../../src/core/operating-point/operating-table';
+import { operatingTableFromBytes, operatingTableToBytes } from '../../src/core/operating-point/operating-table';
 import {
   nonSquareParts,
   simulateParts,
@@ -40,7 +40,7 @@ function basisOf(family: CurveFamily): { basis: PartBasis; flags: string[] } {
   const p = fit.parameters;
   const params = { vtoV: p.vtoV.value, betaAPerV2: p.betaAPerV2.value, lambdaPerV: p.lambdaPerV.value, rsOhm: p.rsOhm.value, rdOhm: p.rdOhm.value };
   // Through the stored form, as the server reads it.
-  const table = fit.operatingTable ? unpackOperatingTable(packOperatingTable(fit.operatingTable)) : null;
+  const table = fit.operatingTable ? operatingTableFromBytes(operatingTableToBytes(fit.operatingTable)) : null;
   return { basis: { params, table, modelSigmaV: fit.modelVgsSigmaV }, flags: fit.flags.map((f) => f.code) };
 }
 

@@ -10,6 +10,8 @@ interface DeviceTypeRow {
   description: string;
   vds_test_v: number;
   nominal_temperature_c: number;
+  vtotc_v_per_c: number;
+  betatce_pct_per_c: number;
   idss_min_a: number | null;
   idss_max_a: number | null;
   vp_min_v: number | null;
@@ -38,6 +40,9 @@ function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeRow; onS
       description: String(f.get('description') ?? ''),
       vds_test_v: num(f.get('vds_test_v')),
       nominal_temperature_c: num(f.get('nominal_temperature_c')) ?? 25,
+      // Entered as |VP| growth in mV/°C; stored as ngspice's VTOTC on the (negative) VTO.
+      vtotc_v_per_c: -(num(f.get('vp_growth_mv_per_c')) ?? 2.2) / 1000,
+      betatce_pct_per_c: num(f.get('betatce_pct_per_c')) ?? -0.7,
       idss_min_a: mA(f.get('idss_min_ma')),
       idss_max_a: mA(f.get('idss_max_ma')),
       vp_min_v: num(f.get('vp_min_v')),
@@ -76,6 +81,18 @@ function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeRow; onS
         <label className="field" htmlFor={`${p}-temp`}>Nominal temperature (°C)</label>
         <input className="input" id={`${p}-temp`} name="nominal_temperature_c" inputMode="decimal" defaultValue={v(initial?.nominal_temperature_c ?? 25)} />
       </div>
+      <div>
+        <label className="field" htmlFor={`${p}-vtotc`}>|VP| change (mV/°C)</label>
+        <input className="input" id={`${p}-vtotc`} name="vp_growth_mv_per_c" inputMode="decimal" defaultValue={v(-(initial?.vtotc_v_per_c ?? -0.0022), 1000)} aria-describedby={`${p}-tc-help`} />
+      </div>
+      <div>
+        <label className="field" htmlFor={`${p}-betatce`}>BETA change (%/°C)</label>
+        <input className="input" id={`${p}-betatce`} name="betatce_pct_per_c" inputMode="decimal" defaultValue={v(initial?.betatce_pct_per_c ?? -0.7)} aria-describedby={`${p}-tc-help`} />
+      </div>
+      <p id={`${p}-tc-help`} className="text-xs text-ink-faint md:col-span-2 self-end">
+        Used to compare parts measured at different temperatures (ngspice's VTOTC = −|VP| change, BETATCE). Defaults +2.2 mV/°C and −0.7 %/°C are
+        classic application-note figures (from memory); put your own parts' figures here when you have them.
+      </p>
       <div>
         <label className="field" htmlFor={`${p}-idss-min`}>IDSS min (mA)</label>
         <input className="input" id={`${p}-idss-min`} name="idss_min_ma" inputMode="decimal" defaultValue={v(initial?.idss_min_a, 1000)} />
@@ -128,18 +145,19 @@ export default function DeviceTypesAdmin() {
       {data && data.device_types.length > 0 && (
         <table className="table-plain bg-paper-raised">
           <thead>
-            <tr><th>Type</th><th>Channel</th><th className="text-right">Test |VDS|</th><th className="text-right">Nominal</th><th>IDSS limits</th><th>VP limits</th><th></th></tr>
+            <tr><th>Type</th><th>Channel</th><th className="text-right">Test |VDS|</th><th className="text-right">Nominal</th><th className="text-right">Temperature coefficients</th><th>IDSS limits</th><th>VP limits</th><th></th></tr>
           </thead>
           <tbody>
             {data.device_types.map((t) =>
               editing === t.id ? (
-                <tr key={t.id}><td colSpan={7}><TypeForm initial={t} onSaved={saved} onCancel={() => setEditing(null)} /></td></tr>
+                <tr key={t.id}><td colSpan={8}><TypeForm initial={t} onSaved={saved} onCancel={() => setEditing(null)} /></td></tr>
               ) : (
                 <tr key={t.id} data-testid={`type-${t.name}`}>
                   <td><div className="font-semibold">{t.name}</div><div className="text-xs text-ink-faint">{t.description}</div></td>
                   <td>{t.channel.toUpperCase()} ({t.channel === 'n' ? 'NJF' : 'PJF'})</td>
                   <td className="num">{t.vds_test_v} V</td>
                   <td className="num">{t.nominal_temperature_c} °C</td>
+                  <td className="num">|VP| {Number((-t.vtotc_v_per_c * 1000).toPrecision(3))} mV/°C, BETA {t.betatce_pct_per_c} %/°C</td>
                   <td>{limits(t.idss_min_a, t.idss_max_a, 'A')}</td>
                   <td>{limits(t.vp_min_v, t.vp_max_v, 'V')}</td>
                   <td className="text-right"><button type="button" className="btn-quiet" onClick={() => setEditing(t.id)}>Edit</button></td>

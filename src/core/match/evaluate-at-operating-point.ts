@@ -1,5 +1,7 @@
 import {
+  emptyFigures,
   partOperatingFigures,
+  partOperatingFiguresInto,
   type PartBasis,
   type PartFigures,
 } from '../operating-point/part-operating-figures';
@@ -51,6 +53,7 @@ export function firstSlots(a: FigureArrays, m: number): FigureArrays {
 }
 
 type Unusable = Extract<PartEvaluation, { usable: false }>;
+const scratchFigures = emptyFigures();
 
 /**
  * Writes the figures of `part` at `op` (compared at `compareAtC`, °C) into slot `i` of `out`;
@@ -63,9 +66,9 @@ export function evaluateIntoArrays(
   i: number,
   compareAtC?: number,
 ): Unusable | null {
-  const e = partOperatingFigures(part, op, compareAtC);
-  if (!e.usable) return e;
-  const f = e.figures;
+  const f = scratchFigures;
+  const bad = partOperatingFiguresInto(part, op, compareAtC, f);
+  if (bad) return bad;
   out.idA[i] = f.idA;
   out.vgsV[i] = f.vgsV;
   out.gmS[i] = f.gmS;

@@ -6,33 +6,40 @@ import type { PreparedCurve } from '../fit/prepared-curves';
  *
  * Each gate step's saturated points (VDS ≥ 1.3·(VGS − VTO) + 0.2 V, points the fit kept) are
  * smoothed by a least-squares polynomial in VDS — a line, or a quadratic where the step has at
- * least 12 such points over 2 V or more — with its covariance from the residual scatter. A
- * point between gate steps is then read by interpolating across the steps at the requested VDS
- * (`readMeasuredFigures`). All values N-equivalent and SI, gate steps in ascending VGS.
+ * least 12 such points over 2 V or more and the bend is significant — with its covariance from
+ * the residual scatter. A point between gate steps is then read by interpolating across the
+ * steps at the requested VDS (`readMeasuredFigures`). All values N-equivalent and SI.
+ *
+ * Layout (float64, from `offset` in `data`, so a whole stock's tables can share one array):
+ * [version, step count n, vdsRefV, then n steps in ascending VGS of STEP_FLOATS values:
+ *  vgs, vdsLo, vdsHi, c0, c1, c2, v00, v01, v02, v11, v12, v22, exponent]
+ * - ID = c0 + c1·x + c2·x², x = VDS − vdsRefV, read only inside [vdsLo, vdsHi] (the saturated
+ *   range the step was measured over);
+ * - v.. the covariance of (c0, c1, c2);
+ * - exponent: the local power-law exponent m of ID ∝ (VGS − V0)^m through the step and its two
+ *   neighbours (ID^(1/m) on one straight line) at vdsRefV; 0 where it cannot be told (an end
+ *   step, or a neighbour near cut-off).
  */
 export interface OperatingTable {
-  /** VDS the polynomials are centred on (V): ID = c0 + c1·x + c2·x², x = VDS − vdsRefV. */
-  vdsRefV: number;
-  vgsV: Float64Array;
-  /** The saturated VDS range each step was measured over (V): readings stay inside it. */
-  vdsLoV: Float64Array;
-  vdsHiV: Float64Array;
-  c0: Float64Array;
-  c1: Float64Array;
-  c2: Float64Array;
-  /** Per step the covariance of (c0, c1, c2): v00, v01, v02, v11, v12, v22. */
-  cov: Float64Array;
-  /**
-   * Per step the local power-law exponent m of ID ∝ (VGS − V0)^m through this step and its two
-   * neighbours (ID^(1/m) on one straight line), read at the table's reference VDS; NaN where
-   * it cannot be told (an end step, or a neighbour near cut-off).
-   */
-  exponent: Float64Array;
+  data: Float64Array;
+  offset: number;
 }
 
 export const TABLE_FORMAT_VERSION = 1;
-const FLOATS_PER_STEP = 13;
-const HEADER_FLOATS = 3;
+export const STEP_FLOATS = 13;
+export const HEADER_FLOATS = 3;
+/** Field positions within a step. */
+export const F_VGS = 0, F_LO = 1, F_HI = 2, F_C0 = 3, F_C1 = 4, F_C2 = 5, F_COV = 6, F_EXP = 12;
+
+/** Number of gate steps in a table. */
+export function tableSteps(t: OperatingTable): number {
+  return t.data[t.offset + 1]!;
+}
+
+/** Position of step k's first field in `t.data`. */
+export function stepBase(t: OperatingTable, k: number): number {
+  return t.offset + HEADER_FLOATS + STEP_FLOATS * k;
+}
 /** Saturation onset used for the table: VDS ≥ KNEE_FACTOR·(VGS − VTO) + KNEE_OFFSET_V. */
 const KNEE_FACTOR = 1.3;
 const KNEE_OFFSET_V = 0.2;
@@ -89,26 +96,21 @@ export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: numb
     } else unique.push(s);
   }
   const n = unique.length;
-  const t: OperatingTable = {
-    vdsRefV: ref,
-    vgsV: new Float64Array(n),
-    vdsLoV: new Float64Array(n),
-    vdsHiV: new Float64Array(n),
-    c0: new Float64Array(n),
-    c1: new Float64Array(n),
-    c2: new Float64Array(n),
-    cov: new Float64Array(6 * n),
-    exponent: new Float64Array(n).fill(NaN),
-  };
-  unique.forEach((s, i) => {
-    t.vgsV[i] = s.vgs;
-    t.vdsLoV[i] = s.lo;
-    t.vdsHiV[i] = s.hi;
-    t.c0[i] = s.c[0];
-    t.c1[i] = s.c[1];
-    t.c2[i] = s.c[2];
-    for (let j = 0; j < 6; j++) t.cov[6 * i + j] = s.cov[j];
+  const data = new Float64Array(HEADER_FLOATS + STEP_FLOATS * n);
+  data[0] = TABLE_FORMAT_VERSION;
+  data[1] = n;
+  data[2] = ref;
+  unique.forEach((st, i) => {
+    const o = HEADER_FLOATS + STEP_FLOATS * i;
+    data[o + F_VGS] = st.vgs;
+    data[o + F_LO] = st.lo;
+    data[o + F_HI] = st.hi;
+    data[o + F_C0] = st.c[0];
+    data[o + F_C1] = st.c[1];
+    data[o + F_C2] = st.c[2];
+    for (let j = 0; j < 6; j++) data[o + F_COV + j] = st.cov[j];
   });
+  const t: OperatingTable = { data, offset: 0 };
   fillLocalExponents(t);
   return t;
 }
@@ -123,16 +125,21 @@ const EXPONENT_RANGE: [number, number] = [1.2, 5];
  * line (bisection; the bend of ID^(1/m) falls as m grows). Clamped at the range's ends.
  */
 function fillLocalExponents(t: OperatingTable): void {
-  const n = t.vgsV.length;
+  const n = tableSteps(t);
+  const d = t.data;
+  const ref = d[t.offset + 2]!;
   // At the reference VDS each polynomial is its constant term.
-  const current = (k: number) => (t.vdsLoV[k] - 1e-6 <= t.vdsRefV && t.vdsRefV <= t.vdsHiV[k] + 1e-6 ? t.c0[k] : NaN);
+  const current = (k: number) => {
+    const o = stepBase(t, k);
+    return d[o + F_LO]! - 1e-6 <= ref && ref <= d[o + F_HI]! + 1e-6 ? d[o + F_C0]! : NaN;
+  };
   for (let k = 1; k < n - 1; k++) {
     const i0 = current(k - 1);
     const i1 = current(k);
     const i2 = current(k + 1);
     if (!(i0 > EXPONENT_MIN_SHARE * i2 && i1 > i0 && i2 > i1)) continue;
-    const h0 = t.vgsV[k] - t.vgsV[k - 1];
-    const h1 = t.vgsV[k + 1] - t.vgsV[k];
+    const h0 = d[stepBase(t, k) + F_VGS]! - d[stepBase(t, k - 1) + F_VGS]!;
+    const h1 = d[stepBase(t, k + 1) + F_VGS]! - d[stepBase(t, k) + F_VGS]!;
     const bend = (m: number) => {
       const y0 = Math.pow(i0, 1 / m);
       const y1 = Math.pow(i1, 1 / m);
@@ -140,20 +147,18 @@ function fillLocalExponents(t: OperatingTable): void {
       return (y2 - y1) / h1 - (y1 - y0) / h0;
     };
     let [lo, hi] = EXPONENT_RANGE;
-    if (bend(lo) <= 0) {
-      t.exponent[k] = lo;
-      continue;
+    let m: number;
+    if (bend(lo) <= 0) m = lo;
+    else if (bend(hi) >= 0) m = hi;
+    else {
+      for (let it = 0; it < 50; it++) {
+        const mid = 0.5 * (lo + hi);
+        if (bend(mid) > 0) lo = mid;
+        else hi = mid;
+      }
+      m = 0.5 * (lo + hi);
     }
-    if (bend(hi) >= 0) {
-      t.exponent[k] = hi;
-      continue;
-    }
-    for (let it = 0; it < 50; it++) {
-      const mid = 0.5 * (lo + hi);
-      if (bend(mid) > 0) lo = mid;
-      else hi = mid;
-    }
-    t.exponent[k] = 0.5 * (lo + hi);
+    d[stepBase(t, k) + F_EXP] = m;
   }
 }
 
@@ -233,62 +238,62 @@ function invertSymmetric(a: Float64Array, p: number): Float64Array | null {
   return out;
 }
 
-/**
- * The table as a flat list of numbers, for a float8[] column: [version, step count, vdsRefV,
- * then per step vgs, lo, hi, c0, c1, c2, v00, v01, v02, v11, v12, v22, exponent], an unknown
- * exponent written as 0. About 100 bytes per gate step.
- */
-export function packOperatingTable(t: OperatingTable): number[] {
-  const n = t.vgsV.length;
-  const f: number[] = [TABLE_FORMAT_VERSION, n, t.vdsRefV];
-  for (let i = 0; i < n; i++) {
-    f.push(t.vgsV[i], t.vdsLoV[i], t.vdsHiV[i], t.c0[i], t.c1[i], t.c2[i]);
-    for (let j = 0; j < 6; j++) f.push(t.cov[6 * i + j]);
-    f.push(Number.isNaN(t.exponent[i]) ? 0 : t.exponent[i]);
-  }
-  return f;
+/** The table's values on their own (a copy), for storing: see `OperatingTable` for the layout. */
+export function packOperatingTable(t: OperatingTable): Float64Array {
+  return t.data.slice(t.offset, t.offset + HEADER_FLOATS + STEP_FLOATS * tableSteps(t));
 }
 
-/** Reads `packOperatingTable`'s list; null for anything that is not a table of this version. */
-export function unpackOperatingTable(f: readonly (number | null)[] | null | undefined): OperatingTable | null {
-  if (!f || f.length < HEADER_FLOATS) return null;
-  const n = f[1];
-  if (f[0] !== TABLE_FORMAT_VERSION || typeof n !== 'number' || !Number.isInteger(n) || f.length !== HEADER_FLOATS + FLOATS_PER_STEP * n) return null;
-  if (f.some((x) => typeof x !== 'number' || !Number.isFinite(x))) return null;
-  const at = (i: number) => f[i] as number;
-  const t: OperatingTable = {
-    vdsRefV: at(2),
-    vgsV: new Float64Array(n),
-    vdsLoV: new Float64Array(n),
-    vdsHiV: new Float64Array(n),
-    c0: new Float64Array(n),
-    c1: new Float64Array(n),
-    c2: new Float64Array(n),
-    cov: new Float64Array(6 * n),
-    exponent: new Float64Array(n),
-  };
-  for (let i = 0; i < n; i++) {
-    const o = HEADER_FLOATS + FLOATS_PER_STEP * i;
-    t.vgsV[i] = at(o);
-    t.vdsLoV[i] = at(o + 1);
-    t.vdsHiV[i] = at(o + 2);
-    t.c0[i] = at(o + 3);
-    t.c1[i] = at(o + 4);
-    t.c2[i] = at(o + 5);
-    for (let j = 0; j < 6; j++) t.cov[6 * i + j] = at(o + 6 + j);
-    const m = at(o + 12);
-    t.exponent[i] = m > 0 ? m : NaN;
-  }
-  return t;
+/**
+ * Checks stored values (`packOperatingTable`'s, as float64 values) and gives the table over
+ * them; null for anything that is not a whole, finite table of this version.
+ */
+export function unpackOperatingTable(values: Float64Array | null | undefined, offset = 0): OperatingTable | null {
+  if (!values || values.length - offset < HEADER_FLOATS) return null;
+  const n = values[offset + 1]!;
+  if (values[offset] !== TABLE_FORMAT_VERSION || !Number.isInteger(n) || n < 0 || values.length - offset < HEADER_FLOATS + STEP_FLOATS * n) return null;
+  for (let i = offset; i < offset + HEADER_FLOATS + STEP_FLOATS * n; i++) if (!Number.isFinite(values[i]!)) return null;
+  return { data: values, offset };
+}
+
+/** The number of float64 values a stored table takes, read from its header (0 when unreadable). */
+export function storedTableLength(values: Float64Array, offset = 0): number {
+  const n = values[offset + 1]!;
+  return Number.isInteger(n) && n >= 0 ? HEADER_FLOATS + STEP_FLOATS * n : 0;
 }
 
 /** Each gate step's smoothed current at `vdsV` where the step was measured in saturation there. */
 export function stepCurrentsAt(t: OperatingTable, vdsV: number): { vgsV: number; idA: number }[] {
-  const x = vdsV - t.vdsRefV;
+  const d = t.data;
+  const x = vdsV - d[t.offset + 2]!;
   const out: { vgsV: number; idA: number }[] = [];
-  for (let k = 0; k < t.vgsV.length; k++) {
-    if (!(vdsV >= t.vdsLoV[k] - 1e-6 && vdsV <= t.vdsHiV[k] + 1e-6)) continue;
-    out.push({ vgsV: t.vgsV[k], idA: t.c0[k] + x * (t.c1[k] + x * t.c2[k]) });
+  for (let k = 0; k < tableSteps(t); k++) {
+    const o = stepBase(t, k);
+    if (!(vdsV >= d[o + F_LO]! - 1e-6 && vdsV <= d[o + F_HI]! + 1e-6)) continue;
+    out.push({ vgsV: d[o + F_VGS]!, idA: d[o + F_C0]! + x * (d[o + F_C1]! + x * d[o + F_C2]!) });
   }
   return out;
+}
+
+/** The table's values as little-endian float64 bytes, for a bytea column. */
+export function operatingTableToBytes(t: OperatingTable): Uint8Array {
+  const values = packOperatingTable(t);
+  const bytes = new Uint8Array(values.length * 8);
+  const view = new DataView(bytes.buffer);
+  for (let i = 0; i < values.length; i++) view.setFloat64(8 * i, values[i]!, true);
+  return bytes;
+}
+
+/**
+ * Reads `operatingTableToBytes`' bytes into `into` at float64 index `at` (a fresh array when
+ * absent); null when they are not a whole table. `into` lets a stock's tables share one array.
+ */
+export function operatingTableFromBytes(bytes: Uint8Array | null | undefined, into?: Float64Array, at = 0): OperatingTable | null {
+  if (!bytes || bytes.byteLength % 8 !== 0 || bytes.byteLength < 8 * HEADER_FLOATS) return null;
+  const n = bytes.byteLength / 8;
+  const target = into ?? new Float64Array(n);
+  if (target.length < at + n) return null;
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  for (let i = 0; i < n; i++) target[at + i] = view.getFloat64(8 * i, true);
+  const t = unpackOperatingTable(target, at);
+  return t && storedTableLength(target, at) === n ? t : null;
 }

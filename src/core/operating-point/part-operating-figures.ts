@@ -1,6 +1,6 @@
 import { gmAtCurrentS, idssA as modelIdssA, vgsAtCurrentV, type JfetParams } from '../jfet-model';
 import type { OperatingTable } from './operating-table';
-import { readMeasuredFigures, type MeasuredMiss, type OperatingRequest } from './read-measured-figures';
+import { measuredOut, readMeasuredInto, type MeasuredMiss, type OperatingRequest } from './read-measured-figures';
 
 export type { OperatingRequest } from './read-measured-figures';
 
@@ -86,43 +86,69 @@ export function partOperatingFigures(
   op: OperatingRequest,
   compareAtC: number = DEFAULT_COMPARE_TEMPERATURE_C,
 ): PartOperatingResult {
+  const figures = emptyFigures();
+  const bad = partOperatingFiguresInto(part, op, compareAtC, figures);
+  return bad ?? { usable: true, figures };
+}
+
+/** A figures object to fill with `partOperatingFiguresInto`. */
+export function emptyFigures(): PartFigures {
+  return {
+    idA: 0, vdsV: 0, vgsV: 0, gmS: 0, gosS: 0, idssA: 0, vdsSatV: 0, vgsSigmaV: NaN,
+    source: 'model', modelReason: null, temperatureC: DEFAULT_COMPARE_TEMPERATURE_C, temperatureShiftV: 0,
+  };
+}
+
+type Unusable = Extract<PartOperatingResult, { usable: false }>;
+
+/**
+ * `partOperatingFigures` into `out` (every field written); returns why the part cannot run
+ * there, or null. Allocates nothing when the point lies inside the measurements, for matching
+ * over a whole stock.
+ */
+export function partOperatingFiguresInto(
+  part: PartBasis,
+  op: OperatingRequest,
+  compareAtC: number = DEFAULT_COMPARE_TEMPERATURE_C,
+  out: PartFigures,
+): Unusable | null {
   const p = part.params;
   if (!(p.vtoV < 0) || !(p.betaAPerV2 > 0) || !(p.lambdaPerV >= 0) || !(p.rsOhm >= 0) || !(p.rdOhm >= 0)) {
     return { usable: false, code: 'invalid_model', reason: 'model needs VTO < 0, BETA > 0 and LAMBDA, RS, RD ≥ 0' };
   }
   const vdsV = Math.abs(op.vdsV);
-  const request = { ...op, vdsV } as OperatingRequest;
-  const measured = readMeasuredFigures(part.table ?? null, p, request);
-  let figures: PartFigures;
-  if (typeof measured === 'string') {
-    const model = modelFigures(p, request);
+  const miss = readMeasuredInto(part.table ?? null, p, op);
+  if (miss !== null) {
+    const model = modelFigures(p, op);
     if (!model.usable) return model;
-    figures = {
-      ...model.figures,
-      vgsSigmaV: part.modelSigmaV ?? NaN,
-      source: 'model',
-      modelReason: measured,
-      temperatureC: compareAtC,
-      temperatureShiftV: 0,
-    };
+    const f = model.figures;
+    out.idA = f.idA;
+    out.vdsV = f.vdsV;
+    out.vgsV = f.vgsV;
+    out.gmS = f.gmS;
+    out.gosS = f.gosS;
+    out.idssA = f.idssA;
+    out.vdsSatV = f.vdsSatV;
+    out.vgsSigmaV = part.modelSigmaV ?? NaN;
+    out.source = 'model';
+    out.modelReason = miss;
   } else {
-    const idss = Number.isNaN(measured.idssA) ? modelIdssA(p, vdsV) : measured.idssA;
-    figures = {
-      idA: measured.idA,
-      vdsV,
-      vgsV: measured.vgsV,
-      gmS: measured.gmS,
-      gosS: measured.gosS,
-      idssA: idss,
-      vdsSatV: measured.vgsV - p.vtoV,
-      vgsSigmaV: measured.vgsSigmaV,
-      source: 'measured',
-      modelReason: null,
-      temperatureC: compareAtC,
-      temperatureShiftV: 0,
-    };
+    const m = measuredOut;
+    out.idA = m.idA;
+    out.vdsV = vdsV;
+    out.vgsV = m.vgsV;
+    out.gmS = m.gmS;
+    out.gosS = m.gosS;
+    out.idssA = Number.isNaN(m.idssA) ? modelIdssA(p, vdsV) : m.idssA;
+    out.vdsSatV = m.vgsV - p.vtoV;
+    out.vgsSigmaV = m.vgsSigmaV;
+    out.source = 'measured';
+    out.modelReason = null;
   }
-  return { usable: true, figures: correctForTemperature(figures, part, request, compareAtC) };
+  out.temperatureC = compareAtC;
+  out.temperatureShiftV = 0;
+  correctForTemperature(out, part, op, compareAtC);
+  return null;
 }
 
 /**
@@ -135,41 +161,40 @@ export function partOperatingFigures(
  * With the default coefficients VGS at a forced current stops moving at VGS − VTO ≈ 0.63 V, the
  * zero-temperature-coefficient bias (derived).
  */
-export function correctForTemperature(
-  f: PartFigures,
-  part: PartBasis,
-  op: OperatingRequest,
-  compareAtC: number,
-): PartFigures {
+export function correctForTemperature(f: PartFigures, part: PartBasis, op: OperatingRequest, compareAtC: number): void {
   const tm = part.measuredAtC;
   const tc = part.tempco;
-  if (tm === null || tm === undefined || !tc || !Number.isFinite(tm) || tm === compareAtC) return f;
+  if (tm === null || tm === undefined || !tc || !Number.isFinite(tm) || tm === compareAtC) return;
   const dT = compareAtC - tm;
   const vto = part.params.vtoV;
   const shift = tc.vtotcVPerC * dT;
   const beta = Math.pow(1.01, tc.betatcePctPerC * dT);
   const idssScale = beta * ((vto + shift) / vto) ** 2;
-  const idssA = f.idssA * idssScale;
+  f.idssA *= idssScale;
   if (op.kind === 'current') {
     const dv = shift + (f.vgsV - vto) * (1 / Math.sqrt(beta) - 1);
-    return { ...f, vgsV: f.vgsV + dv, gmS: f.gmS * Math.sqrt(beta), idssA, vdsSatV: f.vdsSatV + dv - shift, temperatureShiftV: dv };
+    f.vgsV += dv;
+    f.gmS *= Math.sqrt(beta);
+    f.vdsSatV += dv - shift;
+    f.temperatureShiftV = dv;
+    return;
   }
   if (op.kind === 'idss' || op.rsOhm === 0) {
-    return { ...f, idA: f.idA * idssScale, gmS: f.gmS * beta * ((vto + shift) / vto), gosS: f.gosS * idssScale, idssA, vdsSatV: f.vdsSatV - shift, temperatureShiftV: 0 };
+    f.idA *= idssScale;
+    f.gmS *= beta * ((vto + shift) / vto);
+    f.gosS *= idssScale;
+    f.vdsSatV -= shift;
+    return;
   }
   const dvAtI = shift + (f.vgsV - vto) * (1 / Math.sqrt(beta) - 1);
   const idA = f.idA - (dvAtI * f.gmS) / (1 + f.gmS * op.rsOhm);
   const vgsV = -idA * op.rsOhm;
-  return {
-    ...f,
-    idA,
-    vgsV,
-    gmS: f.gmS * Math.sqrt(beta),
-    gosS: (f.gosS * idA) / f.idA,
-    idssA,
-    vdsSatV: vgsV - (vto + shift),
-    temperatureShiftV: vgsV - f.vgsV,
-  };
+  f.gosS = (f.gosS * idA) / f.idA;
+  f.temperatureShiftV = vgsV - f.vgsV;
+  f.idA = idA;
+  f.vgsV = vgsV;
+  f.gmS *= Math.sqrt(beta);
+  f.vdsSatV = vgsV - (vto + shift);
 }
 
 type ModelResult =

@@ -1,5 +1,17 @@
 import { vgsAtCurrentV, type JfetParams } from '../jfet-model';
-import type { OperatingTable } from './operating-table';
+import {
+  F_C0,
+  F_C1,
+  F_C2,
+  F_COV,
+  F_EXP,
+  F_HI,
+  F_LO,
+  F_VGS,
+  stepBase,
+  tableSteps,
+  type OperatingTable,
+} from './operating-table';
 
 /**
  * Where a part is asked to run, N-equivalent and SI:
@@ -34,41 +46,42 @@ export type MeasuredMiss = 'vds_outside' | 'current_outside' | 'no_table';
 /** Below this share of the step above it, a step is too near cut-off to anchor a power law. */
 const NEAR_CUTOFF_SHARE = 0.03;
 /** Exponents used when the table has none (fewer than three conducting steps): square law and cube. */
-const FALLBACK_EXPONENTS: [number, number] = [2, 3];
+const FALLBACK_M0 = 2;
+const FALLBACK_M1 = 3;
 /** Floor on the interpolation uncertainty: this share of the gate-step width. */
 const INTERPOLATION_FLOOR_SHARE = 0.001;
 const VDS_TOLERANCE_V = 1e-6;
 
-// Scratch arrays reused across calls: matching reads 100 000 parts per request.
+// One read's state, reused across calls: matching reads 100 000 parts per request, so the hot
+// path allocates nothing. sv/si: the steps measured at the VDS (VGS, smoothed ID); sb: each
+// one's position in the table; the rest is filled on demand.
 let cap = 0;
 let sv = new Float64Array(0);
 let si = new Float64Array(0);
-let ss = new Float64Array(0);
-let sg = new Float64Array(0);
-let sm = new Float64Array(0);
-let sd = new Float64Array(0);
-let sf = new Float64Array(0);
+let sb = new Int32Array(0);
+let st: OperatingTable = { data: new Float64Array(0), offset: 0 };
+let sParams: JfetParams = { vtoV: -1, betaAPerV2: 1, lambdaPerV: 0, rsOhm: 0, rdOhm: 0 };
+let sVds = 0;
+let sX = 0;
+let sN = 0;
+
 function ensureScratch(n: number) {
   if (n <= cap) return;
   cap = Math.max(n, 2 * cap, 16);
   sv = new Float64Array(cap);
   si = new Float64Array(cap);
-  ss = new Float64Array(cap);
-  sg = new Float64Array(cap);
-  sm = new Float64Array(cap);
-  sd = new Float64Array(cap);
-  sf = new Float64Array(cap);
+  sb = new Int32Array(cap);
 }
 
-/** The state of one read: the table's steps at the requested VDS and the model backbone. */
-interface Steps {
-  n: number;
-  params: JfetParams;
-  vdsV: number;
-}
+/** The result of the last successful read (overwritten by the next one). */
+export const measuredOut: MeasuredFigures = { idA: 0, vgsV: 0, gmS: 0, gosS: 0, vgsSigmaV: 0, idssA: NaN };
+// The last reading's bracket, for gos.
+let rLower = 0;
+let rT = 0;
 
 /**
- * Reads a part's figures at `op` from its operating table (see `OperatingTable`).
+ * Reads a part's figures at `op` from its operating table (see `OperatingTable`), for callers
+ * that want a fresh object; `readMeasuredInto` is the same without allocating.
  *
  * At the requested VDS each gate step's smoothed saturation polynomial gives ID, its standard
  * error and dID/dVDS. VGS at a current between two steps is the mean of two readings:
@@ -77,53 +90,54 @@ interface Steps {
  *    and level-1 doping-tail (B < 1) models do, so ID^(1/m) is interpolated linearly in VGS
  *    between the bracketing steps, with m from the table's two nearest local exponents; half
  *    the difference of the two readings is kept as an interpolation spread.
- * 2. Model backbone. The fitted level-1 model's VGS(ID) carries the shape, and the measured
+ * 2. Model backbone. The fitted level-1 model's VGS(ID) carries the shape and the measured
  *    steps its position: at each step δ = VGS(step) − VGS_model(ID(step)), and δ is
  *    interpolated quadratically in sqrt(ID) through the three steps nearest the point.
  * The two make different assumptions, so half their difference is a second interpolation
  * spread. The standard deviation combines both spreads, the steps' current noise carried
- * through (Lagrange and power-law weights, over gm) and a floor of 0.1 % of the step width.
+ * through (power-law and Lagrange weights, over gm) and a floor of 0.1 % of the step width.
  * On the ngspice checks (tests/unit/operating-point-ngspice.test.ts) the truth lay within two
- * stated standard deviations for every part. Near cut-off (the lower step carries under 3 %
- * of the upper one's current) the power law is anchored on the two steps above.
+ * stated standard deviations for at least 94 % of parts. Near cut-off (the lower step carries
+ * under 3 % of the upper one's current) the power law is anchored on the two steps above.
  * IDSS at VGS = 0 and the self-bias point are found on the same reading by root-finding in ID.
  * gos is the bracketing steps' dID/dVDS per ampere, interpolated and scaled to the current.
  * Outside what was measured it returns why, and the caller uses the model.
  */
-export function readMeasuredFigures(
-  t: OperatingTable | null,
-  params: JfetParams,
-  op: OperatingRequest,
-): MeasuredFigures | MeasuredMiss {
+export function readMeasuredFigures(t: OperatingTable | null, params: JfetParams, op: OperatingRequest): MeasuredFigures | MeasuredMiss {
+  const miss = readMeasuredInto(t, params, op);
+  return miss ?? { ...measuredOut };
+}
+
+/** `readMeasuredFigures` into `measuredOut`; returns why it missed, or null. */
+export function readMeasuredInto(t: OperatingTable | null, params: JfetParams, op: OperatingRequest): MeasuredMiss | null {
   if (!t) return 'no_table';
-  const st: Steps = { n: collectStepsAt(t, params, op.vdsV), params, vdsV: op.vdsV };
-  const n = st.n;
+  const n = collectStepsAt(t, params, Math.abs(op.vdsV));
   if (n < 2) return 'vds_outside';
   let idssA = NaN;
-  for (let k = 0; k < n; k++) if (Math.abs(sv[k]) < 1e-9) idssA = si[k];
+  for (let k = 0; k < n; k++) if (Math.abs(sv[k]!) < 1e-9) idssA = si[k]!;
+  measuredOut.idssA = idssA;
 
   if (op.kind === 'current') {
-    const r = atCurrent(st, op.idA);
-    return r ? finish(r, idssA) : 'current_outside';
+    if (!atCurrent(op.idA)) return 'current_outside';
+    return finish();
   }
-  if (!(sv[0] <= 1e-9 && sv[n - 1] >= -1e-9)) return 'current_outside';
+  if (!(sv[0]! <= 1e-9 && sv[n - 1]! >= -1e-9)) return 'current_outside';
   const rs = op.kind === 'self_bias' ? op.rsOhm : 0;
   if (rs === 0 && !Number.isNaN(idssA)) {
-    // Exactly on the measured VGS = 0 step: its own reading.
-    const below = atCurrent(st, idssA * (1 - 1e-9));
-    if (!below) return 'current_outside';
-    return finish({ ...below, idA: idssA, vgsV: 0, vgsSigmaV: 0 }, idssA);
+    // Exactly on the measured VGS = 0 step: its own reading; gm from just below it.
+    if (!atCurrent(idssA * (1 - 1e-9))) return 'current_outside';
+    measuredOut.idA = idssA;
+    measuredOut.vgsV = 0;
+    measuredOut.vgsSigmaV = 0;
+    return finish();
   }
   // VGS(ID) + ID·RS rises with ID; it is ≥ 0 at the highest step's current when that step is at
   // VGS ≥ 0. Regula falsi (Illinois) between the lowest conducting current and the top.
-  const g = (id: number) => {
-    const r = atCurrent(st, id);
-    return r ? r.vgsV + id * rs : NaN;
-  };
+  const g = (id: number) => (atCurrent(id) ? measuredOut.vgsV + id * rs : NaN);
   let lo = 0;
-  while (lo < n - 1 && !(si[lo] > 0 && si[lo] >= NEAR_CUTOFF_SHARE * si[n - 1])) lo++;
-  let a = si[lo];
-  let b = si[n - 1];
+  while (lo < n - 1 && !(si[lo]! > 0 && si[lo]! >= NEAR_CUTOFF_SHARE * si[n - 1]!)) lo++;
+  let a = si[lo]!;
+  let b = si[n - 1]!;
   let fa = g(a);
   let fb = g(b * (1 - 1e-12));
   if (!(fa <= 0 && fb >= 0)) return 'current_outside';
@@ -146,160 +160,202 @@ export function readMeasuredFigures(
       side = -1;
     }
   }
-  const r = atCurrent(st, x);
-  if (!r) return 'current_outside';
+  if (!atCurrent(x)) return 'current_outside';
   // On the load line VGS = −ID·RS, an error δ in the family moves VGS by δ·gm·RS/(1 + gm·RS).
-  const shrink = rs > 0 ? (r.gmS * rs) / (1 + r.gmS * rs) : 0;
-  return finish({ ...r, vgsV: -x * rs, vgsSigmaV: r.vgsSigmaV * shrink }, idssA);
+  const gm = measuredOut.gmS;
+  measuredOut.vgsSigmaV *= rs > 0 ? (gm * rs) / (1 + gm * rs) : 0;
+  measuredOut.vgsV = -x * rs;
+  return finish();
 }
 
-interface Reading {
-  idA: number;
-  vgsV: number;
-  gmS: number;
-  vgsSigmaV: number;
-  /** Bracketing steps (the lower one's scratch index) and where between them the reading lies. */
-  lower: number;
-  t: number;
+function finish(): null {
+  measuredOut.gosS = gosAt(rLower, rT, measuredOut.idA);
+  return null;
 }
 
-function finish(r: Reading, idssA: number): MeasuredFigures {
-  return { idA: r.idA, vgsV: r.vgsV, gmS: r.gmS, gosS: gosAt(r.lower, r.t, r.idA), vgsSigmaV: r.vgsSigmaV, idssA };
-}
-
-/** Fills the scratch arrays with the steps measured in saturation at `vds`; returns how many. */
+/** Fills sv/si/sb with the steps measured in saturation at `vds`; returns how many. */
 function collectStepsAt(t: OperatingTable, params: JfetParams, vds: number): number {
-  const steps = t.vgsV.length;
+  const steps = tableSteps(t);
   ensureScratch(steps);
-  const x = vds - t.vdsRefV;
+  const d = t.data;
+  st = t;
+  sParams = params;
+  sVds = vds;
+  sX = vds - d[t.offset + 2]!;
   let n = 0;
   for (let k = 0; k < steps; k++) {
-    if (!(vds >= t.vdsLoV[k] - VDS_TOLERANCE_V && vds <= t.vdsHiV[k] + VDS_TOLERANCE_V)) continue;
-    const o = 6 * k;
-    sv[n] = t.vgsV[k];
-    si[n] = t.c0[k] + x * (t.c1[k] + x * t.c2[k]);
-    const variance =
-      t.cov[o] + x * (2 * t.cov[o + 1] + x * (2 * t.cov[o + 2] + t.cov[o + 3] + x * (2 * t.cov[o + 4] + x * t.cov[o + 5])));
-    ss[n] = Math.sqrt(Math.max(variance, 0));
-    sg[n] = t.c1[k] + 2 * x * t.c2[k];
-    sm[n] = t.exponent[k];
-    if (si[n] > 0) {
-      const model = vgsAtCurrentV(params, si[n], vds);
-      sd[n] = sv[n] - model;
-      // dVGS_model/dID, to carry a step's current noise into δ.
-      sf[n] = (vgsAtCurrentV(params, si[n] * (1 + 1e-6), vds) - model) / (si[n] * 1e-6);
-    } else {
-      sd[n] = NaN;
-      sf[n] = NaN;
-    }
+    const o = stepBase(t, k);
+    if (!(vds >= d[o + F_LO]! - VDS_TOLERANCE_V && vds <= d[o + F_HI]! + VDS_TOLERANCE_V)) continue;
+    sv[n] = d[o + F_VGS]!;
+    si[n] = d[o + F_C0]! + sX * (d[o + F_C1]! + sX * d[o + F_C2]!);
+    sb[n] = o;
     n++;
   }
+  sN = n;
   return n;
 }
 
-/** VGS where the family carries `idA`: the mean of the two readings, or null outside the steps. */
-function atCurrent(st: Steps, idA: number): Reading | null {
-  const n = st.n;
-  if (!(idA > 0) || !(idA <= si[n - 1])) return null;
-  let k = n - 2;
-  while (k >= 0 && si[k] > idA) k--;
-  if (k < 0) return null;
-  const p = powerLawReading(n, k, idA);
-  const b = backboneReading(st, k, idA);
-  if (!p || !b) return null;
-  const vgsV = (p.vgsV + b.vgsV) / 2;
-  const gmS = (p.gmS + b.gmS) / 2;
-  const methodSpreadV = Math.abs(p.vgsV - b.vgsV) / 2;
-  const noiseV = Math.max(p.noiseV, b.noiseV);
-  const floorV = INTERPOLATION_FLOOR_SHARE * (sv[k + 1] - sv[k]);
-  const sigma = Math.sqrt(noiseV * noiseV + p.spreadV * p.spreadV + methodSpreadV * methodSpreadV + floorV * floorV);
-  const t = Math.min(Math.max((vgsV - sv[k]) / (sv[k + 1] - sv[k]), 0), 1);
-  return { idA, vgsV, gmS, vgsSigmaV: sigma, lower: k, t };
+/** Standard error of step j's current at the VDS. */
+function sigmaOf(j: number): number {
+  const d = st.data;
+  const o = sb[j]! + F_COV;
+  const x = sX;
+  const variance = d[o]! + x * (2 * d[o + 1]! + x * (2 * d[o + 2]! + d[o + 3]! + x * (2 * d[o + 4]! + x * d[o + 5]!)));
+  return Math.sqrt(Math.max(variance, 0));
 }
 
-/** The two exponents for the bracket (a, a + 1): the nearest finite ones, outwards from it. */
-function bracketExponents(n: number, a: number): [number, number] {
+/** δ = VGS(step) − VGS_model(ID(step)) for step j. */
+function deltaOf(j: number): number {
+  return sv[j]! - vgsAtCurrentV(sParams, si[j]!, sVds);
+}
+
+/** dVGS_model/dID at step j's current, to carry its current noise into δ. */
+function modelSlopeOf(j: number): number {
+  const i = si[j]!;
+  return (vgsAtCurrentV(sParams, i * (1 + 1e-6), sVds) - vgsAtCurrentV(sParams, i, sVds)) / (i * 1e-6);
+}
+
+const exponentOf = (j: number) => st.data[sb[j]! + F_EXP]!;
+
+/**
+ * VGS where the family carries `idA` into `measuredOut` (idA, vgsV, gmS, vgsSigmaV) and the
+ * bracket into rLower/rT: the mean of the two readings. False outside the steps.
+ */
+function atCurrent(idA: number): boolean {
+  const n = sN;
+  if (!(idA > 0) || !(idA <= si[n - 1]!)) return false;
+  let k = n - 2;
+  while (k >= 0 && si[k]! > idA) k--;
+  if (k < 0) return false;
+  if (!powerLawReading(n, k, idA)) return false;
+  const pV = plV, pGm = plGm, pNoise = plNoise, pSpread = plSpread;
+  if (!backboneReading(n, k, idA)) return false;
+  const vgsV = (pV + bbV) / 2;
+  const methodSpreadV = Math.abs(pV - bbV) / 2;
+  const noiseV = Math.max(pNoise, bbNoise);
+  const floorV = INTERPOLATION_FLOOR_SHARE * (sv[k + 1]! - sv[k]!);
+  measuredOut.idA = idA;
+  measuredOut.vgsV = vgsV;
+  measuredOut.gmS = (pGm + bbGm) / 2;
+  measuredOut.vgsSigmaV = Math.sqrt(noiseV * noiseV + pSpread * pSpread + methodSpreadV * methodSpreadV + floorV * floorV);
+  rLower = k;
+  rT = Math.min(Math.max((vgsV - sv[k]!) / (sv[k + 1]! - sv[k]!), 0), 1);
+  return true;
+}
+
+let plV = 0;
+let plGm = 0;
+let plNoise = 0;
+let plSpread = 0;
+
+/** Reading 1 (see `readMeasuredFigures`) between steps k and k + 1, into pl*. */
+function powerLawReading(n: number, k: number, idA: number): boolean {
+  const a = si[k]! < NEAR_CUTOFF_SHARE * si[k + 1]! && k + 2 < n ? k + 1 : k;
+  const ia = si[a]!;
+  const ib = si[a + 1]!;
+  if (!(ib > ia && ia > 0)) return false;
+  const h = sv[a + 1]! - sv[a]!;
+  // The two nearest finite exponents, outwards from the bracket.
   let m0 = NaN;
   let m1 = NaN;
-  for (let d = 0; d < n && (Number.isNaN(m0) || Number.isNaN(m1)); d++) {
-    for (const k of [a - d, a + 1 + d]) {
-      if (k < 0 || k >= n || Number.isNaN(sm[k])) continue;
-      if (Number.isNaN(m0)) m0 = sm[k];
-      else if (Number.isNaN(m1)) m1 = sm[k];
+  for (let dist = 0; dist < n && (Number.isNaN(m0) || Number.isNaN(m1)); dist++) {
+    for (let side = 0; side < 2; side++) {
+      const j = side === 0 ? a - dist : a + 1 + dist;
+      if (j < 0 || j >= n) continue;
+      const m = exponentOf(j);
+      if (!(m > 0)) continue;
+      if (Number.isNaN(m0)) m0 = m;
+      else if (Number.isNaN(m1)) m1 = m;
     }
   }
-  if (Number.isNaN(m0)) return FALLBACK_EXPONENTS;
-  return [m0, Number.isNaN(m1) ? m0 : m1];
-}
-
-/** Reading 1 (see `readMeasuredFigures`) between steps k and k + 1. */
-function powerLawReading(n: number, k: number, idA: number) {
-  const a = si[k] < NEAR_CUTOFF_SHARE * si[k + 1] && k + 2 < n ? k + 1 : k;
-  if (!(si[a + 1] > si[a] && si[a] > 0)) return null;
-  const h = sv[a + 1] - sv[a];
-  const ms = bracketExponents(n, a);
+  if (Number.isNaN(m0)) {
+    m0 = FALLBACK_M0;
+    m1 = FALLBACK_M1;
+  } else if (Number.isNaN(m1)) m1 = m0;
   let v = 0;
   let gm = 0;
   let dvdA = 0;
   let dvdB = 0;
-  const vs = [0, 0];
+  let v0 = 0;
   for (let j = 0; j < 2; j++) {
-    const m = ms[j];
-    const ya = Math.pow(si[a], 1 / m);
-    const yb = Math.pow(si[a + 1], 1 / m);
+    const m = j === 0 ? m0 : m1;
+    const ya = Math.pow(ia, 1 / m);
+    const yb = Math.pow(ib, 1 / m);
     const y = Math.pow(idA, 1 / m);
     const dy = yb - ya;
-    vs[j] = sv[a] + (h * (y - ya)) / dy;
-    v += vs[j] / 2;
+    const vj = sv[a]! + (h * (y - ya)) / dy;
+    if (j === 0) v0 = vj;
+    else plSpread = Math.abs(v0 - vj) / 2;
+    v += vj / 2;
     gm += (m * (idA / y) * dy) / h / 2;
     // ∂v/∂I at each anchor: ∂v/∂y · ∂y/∂I, with ∂y/∂I = y/(m·I).
-    dvdA += ((h * (y - yb)) / (dy * dy)) * (ya / (m * si[a])) / 2;
-    dvdB += ((-h * (y - ya)) / (dy * dy)) * (yb / (m * si[a + 1])) / 2;
+    dvdA += ((h * (y - yb)) / (dy * dy)) * (ya / (m * ia)) / 2;
+    dvdB += ((-h * (y - ya)) / (dy * dy)) * (yb / (m * ib)) / 2;
   }
-  return { vgsV: v, gmS: gm, noiseV: Math.hypot(dvdA * ss[a], dvdB * ss[a + 1]), spreadV: Math.abs(vs[0] - vs[1]) / 2 };
+  plV = v;
+  plGm = gm;
+  plNoise = Math.hypot(dvdA * sigmaOf(a), dvdB * sigmaOf(a + 1));
+  return true;
 }
 
-/** Reading 2 (see `readMeasuredFigures`): the model's VGS plus δ, quadratic in sqrt(ID). */
-function backboneReading(st: Steps, k: number, idA: number) {
-  const n = st.n;
-  // Three conducting steps around the point: k − 1…k + 1 when k + 2 is missing, else k…k + 2.
+let bbV = 0;
+let bbGm = 0;
+let bbNoise = 0;
+
+/** Reading 2 (see `readMeasuredFigures`): the model's VGS plus δ, quadratic in sqrt(ID), into bb*. */
+function backboneReading(n: number, k: number, idA: number): boolean {
+  // Three conducting steps around the point: k…k + 2, or k − 1…k + 1 at the top.
   let b = k + 2 < n ? k : k - 1;
-  while (b >= 0 && b + 2 < n && !(si[b] > 0)) b++;
-  const model = vgsAtCurrentV(st.params, idA, st.vdsV);
-  const dModel = (vgsAtCurrentV(st.params, idA * (1 + 1e-6), st.vdsV) - model) / (idA * 1e-6);
+  while (b >= 0 && b + 2 < n && !(si[b]! > 0)) b++;
+  const model = vgsAtCurrentV(sParams, idA, sVds);
+  const dModel = (vgsAtCurrentV(sParams, idA * (1 + 1e-6), sVds) - model) / (idA * 1e-6);
   const u = Math.sqrt(idA);
-  if (b < 0 || b + 2 >= n || !(si[b] > 0)) {
+  if (b < 0 || b + 2 >= n || !(si[b]! > 0)) {
     // Two conducting steps only: δ linear in sqrt(ID).
-    if (!(si[k] > 0)) return null;
-    const u0 = Math.sqrt(si[k]);
-    const u1 = Math.sqrt(si[k + 1]);
+    if (!(si[k]! > 0)) return false;
+    const u0 = Math.sqrt(si[k]!);
+    const u1 = Math.sqrt(si[k + 1]!);
     const w1 = (u - u0) / (u1 - u0);
-    const delta = (1 - w1) * sd[k] + w1 * sd[k + 1];
-    const dDelta = (sd[k + 1] - sd[k]) / (u1 - u0) / (2 * u);
-    const noiseV = Math.hypot((1 - w1) * sf[k] * ss[k], w1 * sf[k + 1] * ss[k + 1]);
-    return { vgsV: model + delta, gmS: 1 / (dModel + dDelta), noiseV };
+    const d0 = deltaOf(k);
+    const d1 = deltaOf(k + 1);
+    const dDelta = (d1 - d0) / (u1 - u0) / (2 * u);
+    bbV = model + (1 - w1) * d0 + w1 * d1;
+    bbGm = 1 / (dModel + dDelta);
+    bbNoise = Math.hypot((1 - w1) * modelSlopeOf(k) * sigmaOf(k), w1 * modelSlopeOf(k + 1) * sigmaOf(k + 1));
+    return true;
   }
-  const x0 = Math.sqrt(si[b]);
-  const x1 = Math.sqrt(si[b + 1]);
-  const x2 = Math.sqrt(si[b + 2]);
+  const x0 = Math.sqrt(si[b]!);
+  const x1 = Math.sqrt(si[b + 1]!);
+  const x2 = Math.sqrt(si[b + 2]!);
   const l0 = ((u - x1) * (u - x2)) / ((x0 - x1) * (x0 - x2));
   const l1 = ((u - x0) * (u - x2)) / ((x1 - x0) * (x1 - x2));
   const l2 = ((u - x0) * (u - x1)) / ((x2 - x0) * (x2 - x1));
-  const delta = l0 * sd[b] + l1 * sd[b + 1] + l2 * sd[b + 2];
+  const d0 = deltaOf(b);
+  const d1 = deltaOf(b + 1);
+  const d2 = deltaOf(b + 2);
   const dl0 = (2 * u - x1 - x2) / ((x0 - x1) * (x0 - x2));
   const dl1 = (2 * u - x0 - x2) / ((x1 - x0) * (x1 - x2));
   const dl2 = (2 * u - x0 - x1) / ((x2 - x0) * (x2 - x1));
-  const dDelta = (dl0 * sd[b] + dl1 * sd[b + 1] + dl2 * sd[b + 2]) / (2 * u);
-  const noiseV = Math.hypot(l0 * sf[b] * ss[b], l1 * sf[b + 1] * ss[b + 1], l2 * sf[b + 2] * ss[b + 2]);
-  return { vgsV: model + delta, gmS: 1 / (dModel + dDelta), noiseV };
+  const dDelta = (dl0 * d0 + dl1 * d1 + dl2 * d2) / (2 * u);
+  bbV = model + l0 * d0 + l1 * d1 + l2 * d2;
+  bbGm = 1 / (dModel + dDelta);
+  bbNoise = Math.hypot(l0 * modelSlopeOf(b) * sigmaOf(b), l1 * modelSlopeOf(b + 1) * sigmaOf(b + 1), l2 * modelSlopeOf(b + 2) * sigmaOf(b + 2));
+  return true;
+}
+
+/** dID/dVDS of step j at the VDS. */
+function slopeOf(j: number): number {
+  const d = st.data;
+  const o = sb[j]!;
+  return d[o + F_C1]! + 2 * sX * d[o + F_C2]!;
 }
 
 /** gos at the reading: the bracketing steps' dID/dVDS per ampere, interpolated, times ID. */
 function gosAt(k: number, t: number, idA: number): number {
-  const r0 = si[k] > 0 ? sg[k] / si[k] : NaN;
-  const r1 = si[k + 1] > 0 ? sg[k + 1] / si[k + 1] : NaN;
+  const r0 = si[k]! > 0 ? slopeOf(k) / si[k]! : NaN;
+  const r1 = si[k + 1]! > 0 ? slopeOf(k + 1) / si[k + 1]! : NaN;
   // A step carrying under 5 % of its neighbour's current gives too noisy a ratio to use.
-  const use0 = Number.isFinite(r0) && si[k] >= 0.05 * si[k + 1];
+  const use0 = Number.isFinite(r0) && si[k]! >= 0.05 * si[k + 1]!;
   const use1 = Number.isFinite(r1);
   if (use0 && use1) return ((1 - t) * r0 + t * r1) * idA;
   if (use1) return r1 * idA;

@@ -1,5 +1,6 @@
 import {
   bigint,
+  customType,
   boolean,
   doublePrecision,
   index,
@@ -16,6 +17,11 @@ import {
 import { PART_STATUSES } from '../../core/stock/part-transitions';
 import { stationToken, user } from './auth';
 import { deviceType, location, lot } from './catalogue';
+
+/** Raw bytes (PostgreSQL bytea); read back as a Buffer. */
+const bytea = customType<{ data: Uint8Array; driverData: Buffer }>({
+  dataType: () => 'bytea',
+});
 
 /** A part's life: see src/core/stock/part-transitions.ts for the allowed moves. */
 export const partStatusEnum = pgEnum('part_status', PART_STATUSES);
@@ -145,8 +151,11 @@ export const fit = pgTable(
     rmsRel: doublePrecision('rms_rel').notNull(),
     /** Standard errors, metrics, derived figures with errors, excluded points: the full result. */
     detail: jsonb('detail').notNull(),
-    /** The measurements in compact form (`packOperatingTable`): operating-point figures read from them. */
-    operatingTable: doublePrecision('operating_table').array(),
+    /**
+     * The measurements in compact form (`packOperatingTable`'s float64 values, little-endian):
+     * operating-point figures are read from them.
+     */
+    operatingTable: bytea('operating_table'),
     /** One standard deviation of a VGS taken from the model outside the measured range (V). */
     modelVgsSigmaV: doublePrecision('model_vgs_sigma_v'),
     flags: text('flags').array().notNull().default([]),

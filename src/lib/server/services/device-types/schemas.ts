@@ -10,6 +10,10 @@ export const DeviceTypeInput = z
     description: z.string().trim().max(400).default(''),
     vds_test_v: z.number().positive('must be a positive |VDS| in volts').max(100, 'must be at most 100 V'),
     nominal_temperature_c: z.number().min(-60).max(200).default(25),
+    /** ngspice's VTOTC (V/°C) on the N-equivalent VTO: negative when |VP| grows with temperature. */
+    vtotc_v_per_c: z.number().min(-0.05, 'must be between −50 and 50 mV/°C').max(0.05, 'must be between −50 and 50 mV/°C').default(-0.0022),
+    /** ngspice's BETATCE (%/°C): BETA(T) = BETA·1.01^(BETATCE·ΔT). */
+    betatce_pct_per_c: z.number().min(-5, 'must be between −5 and 5 %/°C').max(5, 'must be between −5 and 5 %/°C').default(-0.7),
     idss_min_a: optionalNumber,
     idss_max_a: optionalNumber,
     vp_min_v: optionalNumber,
@@ -39,6 +43,8 @@ export function toColumns(v: DeviceTypeInput) {
     description: v.description,
     vdsTestV: v.vds_test_v,
     nominalTemperatureC: v.nominal_temperature_c,
+    vtotcVPerC: v.vtotc_v_per_c,
+    betatcePctPerC: v.betatce_pct_per_c,
     idssMinA: v.idss_min_a ?? null,
     idssMaxA: v.idss_max_a ?? null,
     vpMinV: v.vp_min_v ?? null,
@@ -53,6 +59,8 @@ export interface DeviceTypeRow {
   description: string;
   vds_test_v: number;
   nominal_temperature_c: number;
+  vtotc_v_per_c: number;
+  betatce_pct_per_c: number;
   idss_min_a: number | null;
   idss_max_a: number | null;
   vp_min_v: number | null;
@@ -61,6 +69,7 @@ export interface DeviceTypeRow {
 
 export function toDeviceTypeRow(r: {
   id: number; name: string; channel: 'n' | 'p'; description: string; vdsTestV: number; nominalTemperatureC: number;
+  vtotcVPerC: number; betatcePctPerC: number;
   idssMinA: number | null; idssMaxA: number | null; vpMinV: number | null; vpMaxV: number | null;
 }): DeviceTypeRow {
   return {
@@ -70,6 +79,8 @@ export function toDeviceTypeRow(r: {
     description: r.description,
     vds_test_v: r.vdsTestV,
     nominal_temperature_c: r.nominalTemperatureC,
+    vtotc_v_per_c: r.vtotcVPerC,
+    betatce_pct_per_c: r.betatcePctPerC,
     idss_min_a: r.idssMinA,
     idss_max_a: r.idssMaxA,
     vp_min_v: r.vpMinV,

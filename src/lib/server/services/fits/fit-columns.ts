@@ -1,6 +1,6 @@
 import type { FittedResult } from '../../../../core/fit/definitions';
 import type { Channel } from '../../../../core/jfet-model';
-import { packOperatingTable } from '../../../../core/operating-point/operating-table';
+import { operatingTableToBytes } from '../../../../core/operating-point/operating-table';
 
 /**
  * The columns of a fit row from the fitter's result. Parameters stay N-equivalent (VTO
@@ -34,7 +34,7 @@ export function fitColumns(
     rdsOnOhm: d.rdsOnOhm.value,
     rmsRel: q.rmsResidualRelative,
     detail,
-    operatingTable: operatingTable ? packOperatingTable(operatingTable) : null,
+    operatingTable: operatingTable ? operatingTableToBytes(operatingTable) : null,
     modelVgsSigmaV: Number.isFinite(result.modelVgsSigmaV) ? result.modelVgsSigmaV : null,
     flags: result.flags.map((f) => f.code),
     review,

@@ -1,5 +1,5 @@
 import type { MatchCandidate } from '../../../../core/match/match-types';
-import { unpackOperatingTable } from '../../../../core/operating-point/operating-table';
+import { operatingTableFromBytes } from '../../../../core/operating-point/operating-table';
 import { getPool } from '../../../../db/client';
 
 /**
@@ -69,10 +69,15 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
     const binIds = new Int32Array(n);
     const candidates: MatchCandidate[] = new Array(n);
     const slotBySerial = new Map<string, number>();
+    // Every part's operating table in one array: one allocation for the whole stock.
+    let tableBytes = 0;
+    for (let i = 0; i < n; i++) tableBytes += (rows.rows[i] as unknown[])[9] ? ((rows.rows[i] as unknown[])[9] as Buffer).byteLength : 0;
+    const tableValues = new Float64Array(Math.ceil(tableBytes / 8));
+    let tableAt = 0;
     for (let i = 0; i < n; i++) {
       const [id, serial, lotId, binId, vto, beta, lambda, rs, rd, table, modelSigma, measuredAtC, vtotc, betatce] = rows.rows[i] as [
         number, string, number | null, number | null, number, number, number, number, number,
-        number[] | null, number | null, number | null, number, number,
+        Buffer | null, number | null, number | null, number, number,
       ];
       partIds[i] = id;
       binIds[i] = binId ?? 0;
@@ -82,11 +87,12 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
         lotId: lotId === null ? null : String(lotId),
         binCode: null,
         params: { vtoV: vto, betaAPerV2: beta, lambdaPerV: lambda, rsOhm: rs, rdOhm: rd },
-        table: unpackOperatingTable(table),
+        table: table ? operatingTableFromBytes(table, tableValues, tableAt) : null,
         measuredAtC,
         tempco: { vtotcVPerC: vtotc, betatcePctPerC: betatce },
         modelSigmaV: modelSigma ?? NaN,
       };
+      if (table) tableAt += table.byteLength / 8;
     }
     return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date() };
   } catch (err) {

@@ -1,6 +1,6 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { Channel } from '../../../../core/jfet-model';
-import { unpackOperatingTable } from '../../../../core/operating-point/operating-table';
+import { operatingTableFromBytes } from '../../../../core/operating-point/operating-table';
 import type { PartBasis } from '../../../../core/operating-point/part-operating-figures';
 import { schema, type DbOrTx } from '../../../../db/client';
 
@@ -69,7 +69,7 @@ export function basisFromColumns(
     lambdaPerV: number;
     rsOhm: number;
     rdOhm: number;
-    operatingTable: number[] | null;
+    operatingTable: Uint8Array | null;
     modelVgsSigmaV: number | null;
   },
   measuredAtC: number | null,
@@ -77,7 +77,7 @@ export function basisFromColumns(
 ): PartBasis {
   return {
     params: { vtoV: fit.vtoV, betaAPerV2: fit.betaAPerV2, lambdaPerV: fit.lambdaPerV, rsOhm: fit.rsOhm, rdOhm: fit.rdOhm },
-    table: unpackOperatingTable(fit.operatingTable),
+    table: operatingTableFromBytes(fit.operatingTable),
     measuredAtC,
     tempco,
     modelSigmaV: fit.modelVgsSigmaV ?? NaN,

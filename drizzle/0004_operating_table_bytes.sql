@@ -1,0 +1,1 @@
+ALTER TABLE "fit" ALTER COLUMN "operating_table" SET DATA TYPE bytea USING NULL;
