@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { sig as formatQuantity } from './sig';
+import { columnFormat, formatPlain } from '../../core/units/format-quantity';
 
 export interface MixerProductRow {
   name: string;
@@ -21,7 +21,7 @@ const PRODUCT_LABELS: Record<string, string> = {
 };
 
 function db(v: number | null, digits = 2): string {
-  return v === null ? '—' : v.toFixed(digits).replace('-', '\u2212');
+  return formatPlain(v, digits);
 }
 
 /**
@@ -31,16 +31,23 @@ function db(v: number | null, digits = 2): string {
 export function MixerTable({ rows, partKey }: { rows: MixerProductRow[]; partKey: string }) {
   const [unit, setUnit] = useState<'dbv' | 'dbm'>('dbv');
   const [measured, setMeasured] = useState<Record<string, string>>({});
+  // One unit per column over the products.
+  const col = {
+    f: columnFormat(rows.map((p) => p.frequency_hz), 'Hz', 4),
+    i: columnFormat(rows.map((p) => p.current_a), 'A', 4),
+    z: columnFormat(rows.map((p) => p.load_impedance_ohm), 'Ω', 4),
+    v: columnFormat(rows.map((p) => p.output_peak_v), 'V', 4),
+  };
   return (
     <div className="overflow-x-auto">
       <table className="table-plain" aria-label={`Mixer products of ${partKey}`}>
         <thead>
           <tr>
             <th>Product</th>
-            <th className="num">Frequency</th>
-            <th className="num">Drain current (peak)</th>
-            <th className="num">|Z| of the load</th>
-            <th className="num">Output (peak)</th>
+            <th className="num">Frequency ({col.f.unit})</th>
+            <th className="num">Drain current, peak ({col.i.unit})</th>
+            <th className="num">|Z| of the load ({col.z.unit})</th>
+            <th className="num">Output, peak ({col.v.unit})</th>
             <th className="num">dBV (RMS)</th>
             <th className="num">dBm into R</th>
             <th className="num">
@@ -66,10 +73,10 @@ export function MixerTable({ rows, partKey }: { rows: MixerProductRow[]; partKey
             return (
               <tr key={p.name}>
                 <td className="whitespace-nowrap font-semibold">{PRODUCT_LABELS[p.name] ?? p.name}</td>
-                <td className="num">{formatQuantity(p.frequency_hz, 'Hz')}</td>
-                <td className="num">{formatQuantity(p.current_a, 'A')}</td>
-                <td className="num">{formatQuantity(p.load_impedance_ohm, 'Ω')}</td>
-                <td className="num">{formatQuantity(p.output_peak_v, 'V')}</td>
+                <td className="num">{col.f.number(p.frequency_hz)}</td>
+                <td className="num">{col.i.number(p.current_a)}</td>
+                <td className="num">{col.z.number(p.load_impedance_ohm)}</td>
+                <td className="num">{col.v.number(p.output_peak_v)}</td>
                 <td className="num">{db(p.dbv)}</td>
                 <td className="num">{db(p.dbm)}</td>
                 <td className="num">
