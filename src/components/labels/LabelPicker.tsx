@@ -89,7 +89,7 @@ export default function LabelPicker({ deviceTypes, layouts, initialKind }: { dev
                 <li key={l.id}>
                   <label className="flex min-h-11 items-start gap-2 py-1">
                     <input type="checkbox" className="mt-1" checked={pickedLocations.has(l.id)} onChange={() => toggleLocation(l.id)} />
-                    <span><span className="font-semibold">{l.name}</span> <span className="font-mono text-xs text-ink-soft">{l.barcode}</span> <span className="text-ink-faint">· {l.part_count} parts</span></span>
+                    <span><span className="font-semibold">{l.name}</span> <span className="font-mono text-xs text-ink-soft">{l.barcode}</span> <span className="text-ink-faint">· {l.part_count} part{l.part_count === 1 ? '' : 's'}</span></span>
                   </label>
                 </li>
               ))}
