@@ -65,7 +65,8 @@ export default function StockCount() {
   async function onLocationKey(e: KeyboardEvent<HTMLInputElement>) {
     if (e.key !== 'Enter') return;
     e.preventDefault();
-    const loc = collectScanBatch([locationText]).serials[0];
+    // A location barcode is matched as printed (the serial rule's upper-casing is for serials only).
+    const loc = locationText.trim();
     if (!loc) return;
     const out = await compare(loc, []);
     if (out) {
