@@ -1,3 +1,4 @@
+import { normalizeSerial } from '../../../../core/serial/normalize-serial';
 import { and, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, schema } from '../../../../db/client';
@@ -10,7 +11,7 @@ import { parsePickListId } from './get';
 import { loadPickListView, type PickListView } from './pick-list-view';
 
 export const ReturnRequest = z.object({
-  serials: z.array(z.string().trim().min(1)).min(1, 'name at least one serial to take back').max(500),
+  serials: z.array(z.string().transform(normalizeSerial).pipe(z.string().min(1))).min(1, 'name at least one serial to take back').max(500),
   /** true (default): straight back into stock at the place it was picked from; false: leave it returned (e.g. for re-measuring). */
   restock: z.boolean().default(true),
   reason: z.string().trim().max(300).optional(),
