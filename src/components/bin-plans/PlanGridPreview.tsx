@@ -1,5 +1,6 @@
 import { binEdges, type BinPlan } from '../../core/binning';
 import { formatNumber } from '../../core/units/format-quantity';
+import { useWidth } from '../charts/use-width';
 
 export interface PreviewPoint {
   serial: string;
@@ -9,8 +10,6 @@ export interface PreviewPoint {
   on_shelf: boolean;
 }
 
-const W = 720;
-const H = 420;
 const M = { top: 14, right: 16, bottom: 46, left: 60 };
 
 function edgesOf(plan: BinPlan | null, quantity: 'idss' | 'vp'): number[] {
@@ -37,6 +36,10 @@ function ticks(lo: number, hi: number, n = 6): number[] {
  * carry it), hollow when only its record changes.
  */
 export default function PlanGridPreview({ oldPlan, newPlan, points }: { oldPlan: BinPlan | null; newPlan: BinPlan; points: PreviewPoint[] }) {
+  // Drawn at the width it is shown, so its labels stay legible on a phone.
+  const { ref, width } = useWidth<HTMLDivElement>(720);
+  const W = width;
+  const H = Math.round(Math.min(420, Math.max(300, W * 0.6)));
   const oldI = edgesOf(oldPlan, 'idss').map((x) => x * 1e3);
   const oldV = edgesOf(oldPlan, 'vp');
   const newI = edgesOf(newPlan, 'idss').map((x) => x * 1e3);
@@ -60,7 +63,8 @@ export default function PlanGridPreview({ oldPlan, newPlan, points }: { oldPlan:
   const shelfMoves = pts.filter((p) => p.moves && p.on_shelf).length;
   return (
     <figure className="space-y-2" aria-label="Old and new bin grids over the parts">
-      <svg viewBox={`0 0 ${W} ${H}`} className="w-full h-auto rounded border border-paper-line bg-paper-raised" role="img" aria-label={`Old grid dashed, new grid solid; ${shelfMoves} parts on shelves change bin`}>
+      <div ref={ref} />
+      <svg viewBox={`0 0 ${W} ${H}`} width={W} height={H} className="max-w-full h-auto rounded border border-paper-line bg-paper-raised" role="img" aria-label={`Old grid dashed, new grid solid; ${shelfMoves} parts on shelves change bin`}>
         <g className="stroke-ink-faint" strokeWidth={1}>
           {vLines(oldI, 'stroke-ink-faint', '5 4')}
           {hLines(oldV, 'stroke-ink-faint', '5 4')}
@@ -82,7 +86,7 @@ export default function PlanGridPreview({ oldPlan, newPlan, points }: { oldPlan:
             </circle>
           ))}
         <g className="fill-ink-soft text-[11px]">
-          {ticks(x0, x1).map((t) => (
+          {ticks(x0, x1, W < 500 ? 4 : 6).map((t) => (
             <text key={`tx${t}`} x={sx(t)} y={H - M.bottom + 16} textAnchor="middle">
               {formatNumber(t, t % 1 === 0 ? 0 : 1)}
             </text>
