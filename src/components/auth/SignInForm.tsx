@@ -25,7 +25,11 @@ export default function SignInForm({ next }: { next: string }) {
         window.location.assign(safeNextPath(next));
         return;
       }
-      if (res.status === 429) setError('Too many failed sign-ins for this account or from this address. Wait a few minutes, then try again.');
+      if (res.status === 429) {
+        // The server says which limit was reached and for how long.
+        const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
+        setError(body?.error?.message ?? 'Too many failed sign-ins for this account or from this address. Wait a few minutes, then try again.');
+      }
       else if (res.status === 401) setError('That e-mail and password do not match an active account.');
       else if (res.status === 403) setError('This account is disabled. Ask an admin.');
       else setError(`Sign-in failed (the server answered ${res.status}).`);
