@@ -72,6 +72,10 @@ if (!only || only === 'unit') statuses.push(vitest('unit', 'vitest.config.ts'));
 
 const children = [];
 const appChildren = [];
+// A set-up step that fails (a build error) exits at once: the servers started so far go too.
+process.on('exit', () => {
+  for (const c of [...children, ...appChildren]) if (c.exitCode === null && c.signalCode === null) c.kill('SIGTERM');
+});
 /** A freshly created, migrated and seeded test database: each suite starts from the demo scenario alone. */
 function freshDatabase() {
   dropDatabase(bin, TEST_DB);

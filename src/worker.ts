@@ -12,7 +12,7 @@ let unhandled = 0;
 process.on('unhandledRejection', (reason) => {
   unhandled++;
   const detail = reason instanceof Error ? (reason.stack ?? reason.message) : String(reason);
-  console.error(`[worker] BUG: unhandled promise rejection #${unhandled} (logged, worker goes on):\n${storableText(detail, 8000)}`);
+  console.error(`[worker] unhandled promise rejection #${unhandled} (a write nobody awaited, or a bug; logged, the worker goes on):\n${storableText(detail, 8000)}`);
 });
 // A thrown exception nobody caught leaves the process in an unknown state: log it and exit,
 // so that the supervisor (`npm start`) starts a fresh worker; the jobs this one held are
