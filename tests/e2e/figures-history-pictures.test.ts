@@ -87,7 +87,9 @@ describe('readable history (item 10)', () => {
     const given = errors.filter((e) => e.startsWith('±'));
     expect(given.length).toBeGreaterThan(3);
     for (const e of given) {
-      const digits = e.replace(/^± /, '').replace(/ .*$/, '').replace('.', '').replace(/^0+/, '');
+      const number = e.replace(/^± /, '').replace(/ .*$/, '');
+      // Significant digits: no leading zeros, and no trailing zeros of a whole number ("150" has two).
+      const digits = (number.includes('.') ? number.replace('.', '') : number.replace(/0+$/, '')).replace(/^0+/, '');
       expect(digits.length, e).toBeLessThanOrEqual(2);
     }
     await screenshot(page, 'part-page-figures-1440');

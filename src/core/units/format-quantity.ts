@@ -148,8 +148,9 @@ export interface MeasuredText {
 }
 
 /**
- * A figure with its standard uncertainty, both in the value's prefix and rounded to the
- * uncertainty's last significant digit: (−0.5433969 V, 0.00047 V) → "−543.4 mV ± 0.5 mV".
+ * A figure with its standard uncertainty, the value rounded to the uncertainty's last
+ * significant digit: (−0.5433969 V, 0.00047 V) → "−543.4 mV ± 0.5 mV"; both in the value's
+ * prefix unless the uncertainty would read 0.00… in it (−3.363 V, 0.0017 V) → "−3.3630 V ± 1.7 mV".
  * Without a usable uncertainty the value gets `fallbackSig` significant digits.
  */
 export function formatMeasured(
@@ -168,7 +169,13 @@ export function formatMeasured(
   const prefix = chooseUnitPrefix(Math.abs(value) >= u ? value : u, unit, 0);
   const digits = Math.max(0, Math.round(Math.log10(prefix.factor)) - exponent);
   const v = `${formatNumber(value / prefix.factor, digits)} ${prefix.symbol}${unit}`;
-  const e = `${formatNumber(u / prefix.factor, digits)} ${prefix.symbol}${unit}`;
+  // The uncertainty shares the value's prefix unless that would print it as 0.00…: then it
+  // takes its own ("−3.3630 V ± 1.7 mV", not "± 0.0017 V").
+  // Its own prefix is the one it reads at least 0.1 in ("0.5 mV" rather than "500 µV").
+  const uRounded = Number(u.toPrecision(uncertaintyDigits(u)));
+  const uPrefix = u / prefix.factor < 0.01 ? chooseUnitPrefix(10 * uRounded, unit, 0) : prefix;
+  const uDigits = Math.max(0, Math.round(Math.log10(uPrefix.factor)) - exponent);
+  const e = `${formatNumber(u / uPrefix.factor, uDigits)} ${uPrefix.symbol}${unit}`;
   return { value: v, uncertainty: e, text: `${v} ± ${e}` };
 }
 
