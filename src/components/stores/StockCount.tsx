@@ -38,6 +38,7 @@ export default function StockCount() {
   const [count, setCount] = useState<StockCountJson>();
   const [error, setError] = useState<string>();
   const [holdMissing, setHoldMissing] = useState(true);
+  const [showFound, setShowFound] = useState(false);
   const [busy, setBusy] = useState(false);
   const scanRef = useRef<HTMLInputElement>(null);
   const locRef = useRef<HTMLInputElement>(null);
@@ -152,14 +153,6 @@ export default function StockCount() {
       {count && (
         <>
           <div className="grid gap-4 md:grid-cols-2 xl:grid-cols-3">
-            <Group title="found where the records say" hint="Recorded here and scanned here." tone="tag-ok" testId="count-found" count={count.found.length}>
-              {count.found.map((s) => (
-                <li key={s} className="flex items-center justify-between gap-2" data-serial={s}>
-                  <span className="font-mono">{s}</span>
-                  {!done && <button type="button" className="btn-quiet min-w-11 justify-center py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
-                </li>
-              ))}
-            </Group>
             <Group title="missing" hint="Recorded here but not scanned. Look again, or correct: in-stock parts go on hold (quarantined) so nobody reserves them." tone="tag-fault" testId="count-missing" count={count.missing.length}>
               {count.missing.map((p) => <PartLine key={p.serial} p={p} what={p.status === 'reserved' ? '· reserved: left as it is; tell whoever holds the reservation' : '· in stock by the records'} />)}
             </Group>
@@ -176,6 +169,21 @@ export default function StockCount() {
                   {!done && <button type="button" className="btn-quiet min-w-11 justify-center py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
                 </li>
               ))}
+            </Group>
+            <Group title="found where the records say" hint="Recorded here and scanned here." tone="tag-ok" testId="count-found" count={count.found.length}>
+              {(count.found.length > 8 && !showFound ? count.found.slice(-3) : count.found).map((s) => (
+                <li key={s} className="flex items-center justify-between gap-2" data-serial={s}>
+                  <span className="font-mono">{s}</span>
+                  {!done && <button type="button" className="btn-quiet min-w-11 justify-center py-0" aria-label={`Unscan ${s}`} onClick={() => remove(s)}>×</button>}
+                </li>
+              ))}
+              {count.found.length > 8 && (
+                <li>
+                  <button type="button" className="btn-quiet" onClick={() => setShowFound((v) => !v)}>
+                    {showFound ? 'Show only the last 3' : `Show all ${count.found.length}`}
+                  </button>
+                </li>
+              )}
             </Group>
           </div>
 
