@@ -143,6 +143,14 @@ export function ownedRecordScope(kind: OwnedRecord, grants: readonly Permission[
   return access.own.some((p) => grants.includes(p)) ? 'own' : 'none';
 }
 
+/**
+ * Uploads: a person who may upload sees every upload (inspectors share the intake); a test
+ * station sees only the uploads it made itself.
+ */
+export function maySeeUpload(actor: { stationId: string | null }, upload: { stationTokenId: string | null }): boolean {
+  return actor.stationId === null || upload.stationTokenId === actor.stationId;
+}
+
 /** The permissions that give any access to records of this kind. */
 export function ownedRecordNeed(kind: OwnedRecord): Permission[] {
   const access = OWNED_RECORD_ACCESS[kind];

@@ -393,3 +393,21 @@ describe("finding 8: one designer never reads another's reservation", () => {
     expect(res.status).toBe(404);
   });
 });
+
+describe('uploads: a station reads only its own, people read every upload', () => {
+  it("a station asking for an inspector's upload gets 404; another inspector gets it", async () => {
+    const boundary = 'sluice-own';
+    const body = Buffer.from(
+      `--${boundary}\r\ncontent-disposition: form-data; name="file"; filename="own-${randomUUID().slice(0, 8)}.csv"\r\ncontent-type: text/csv\r\n\r\nnot a sweep ${randomUUID()}\r\n--${boundary}--\r\n`,
+    );
+    const up = await raw('POST', '/api/sweeps', { headers: { cookie: inspector.cookie, 'content-type': `multipart/form-data; boundary=${boundary}`, origin: BASE_URL }, body });
+    expect(up.status, up.body).toBe(202);
+    const uploadId = JSON.parse(up.body).upload_id as string;
+    const st = await admin.fetch('/api/admin/stations', { method: 'POST', json: { name: `ownership station ${Date.now()}` } });
+    const token = (await st.json()).token as string;
+    const asStation = await fetch(`${BASE_URL}/api/uploads/${uploadId}`, { headers: { authorization: `Bearer ${token}` } });
+    expect(asStation.status).toBe(404);
+    expect((await asStation.json()).error.code).toBe('not_found');
+    expect((await inspector.fetch(`/api/uploads/${uploadId}`)).status).toBe(200);
+  });
+});

@@ -2,6 +2,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, schema } from '../../../../db/client';
 import { AppError } from '../../errors';
+import { maySeeUpload } from '../../../access';
 import { requirePermission, type Actor } from '../../identity';
 import { fitRetries, type FitRetry } from '../../jobs/fit-attempts';
 import type { SweepNoteJson } from '../intake/ingest-stored-file';
@@ -36,7 +37,7 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
   const uploadId = z.string().uuid('must be an upload id').parse(id);
   const db = getDb();
   const [upload] = await db.select().from(schema.upload).where(eq(schema.upload.id, uploadId));
-  if (!upload || (actor.stationId && upload.stationTokenId !== actor.stationId)) {
+  if (!upload || !maySeeUpload(actor, upload)) {
     throw new AppError('not_found', `No upload ${uploadId}. Check the id that POST /api/sweeps returned.`);
   }
   const files = await db.select().from(schema.uploadFile).where(eq(schema.uploadFile.uploadId, uploadId)).orderBy(asc(schema.uploadFile.id));
