@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it, vi } from 'vitest';
 import { inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '../../src/db/client';
 import type { Actor } from '../../src/lib/server/identity';
-import { getBoss, stopBoss } from '../../src/lib/server/jobs/boss';
+import { getBoss, JOB_EXPIRE_SECONDS, QUEUES, stopBoss } from '../../src/lib/server/jobs/boss';
 import { fitUploadFiles } from '../../src/lib/server/jobs/fit-upload-file';
 import { JobFailure } from '../../src/lib/server/jobs/job-failure';
 import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
@@ -58,6 +58,33 @@ describe('a job failure whose text PostgreSQL cannot store', () => {
     expect(rows.map((f) => f.state)).toEqual(['rejected', 'fitted']);
     expect(rows[0].errorCode).toBe('internal_error');
     expect(rows[0].reason).toContain(`NUL-${RUN}-1.csv: could not be fitted after repeated attempts — internal error: upload file(s) ${bad} could not be ingested: fitter broke on "a\u2400b" \uFFFD`);
+  });
+
+  it('a fitting job that fails every attempt, by an error or by a worker that died, lands in the dead-letter queue and its file is refused', async () => {
+    const r = await receiveSweepUpload({ actor: station, files: [file(`DL-${RUN}-1`, 9), file(`DL-${RUN}-2`, 8)], tags: {}, queue: false });
+    const [byError, byDeath] = r.files.map((f) => f.id);
+    const boss = await getBoss();
+    // Held back an hour so that the suite's running worker does not take them; fetched here
+    // first (highest priority) as a worker would.
+    const later = new Date(Date.now() + 3600_000);
+    await boss.send(QUEUES.fitUploadFile, { uploadFileId: byError }, { retryLimit: 0, priority: 1000, startAfter: later });
+    await boss.send(QUEUES.fitUploadFile, { uploadFileId: byDeath }, { retryLimit: 0, priority: 1000, startAfter: later, expireInSeconds: 1 });
+    const jobs = await boss.fetch<{ uploadFileId: number }>(QUEUES.fitUploadFile, { batchSize: 2, ignoreStartAfter: true });
+    expect(jobs.map((j) => j.data.uploadFileId).sort()).toEqual([byError, byDeath].sort());
+    const failing = jobs.find((j) => j.data.uploadFileId === byError)!;
+    await boss.fail(QUEUES.fitUploadFile, failing.id, new JobFailure(QUEUES.fitUploadFile, new Error('fitter broke for good')));
+    // The other job is never finished, as if its worker had been killed: pg-boss expires it.
+
+    const reasons = async () =>
+      (await getDb().select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, [byError, byDeath])).orderBy(schema.uploadFile.id)).map((f) => [f.state, f.reason]);
+    for (let i = 0; i < 120 && (await reasons()).some(([state]) => state !== 'rejected'); i++) await new Promise((res) => setTimeout(res, 250));
+    const byId = new Map((await getDb().select().from(schema.uploadFile).where(inArray(schema.uploadFile.id, [byError, byDeath]))).map((f) => [f.id, f]));
+    expect(byId.get(byError)).toMatchObject({ state: 'rejected', errorCode: 'internal_error' });
+    expect(byId.get(byError)!.reason).toContain(`DL-${RUN}-1.csv: could not be fitted after repeated attempts — internal error: fit-upload-file: fitter broke for good.`);
+    expect(byId.get(byDeath)).toMatchObject({ state: 'rejected', errorCode: 'internal_error' });
+    expect(byId.get(byDeath)!.reason).toContain(
+      `DL-${RUN}-2.csv: could not be fitted after repeated attempts — internal error: the worker fitting it stopped, or took longer than ${JOB_EXPIRE_SECONDS} s, on every attempt.`,
+    );
   });
 
   it('pg-boss stores the failure the worker hands it (the write that used to end the worker)', async () => {
