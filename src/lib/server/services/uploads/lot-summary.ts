@@ -2,6 +2,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { lotSummaryText, summarizeUploadByLot, type LotSummary } from '../../../../core/intake/summarize-upload-by-lot';
 import { unknownLotOf } from '../../../../core/intake/upload-verdict';
+import { formatDateTime } from '../../../../core/units/format-date';
 import { getDb, schema } from '../../../../db/client';
 import { writeAudit } from '../../audit';
 import { serverEnv } from '../../env';
@@ -103,7 +104,7 @@ export async function mailLotSummary({ actor, id, input }: { actor: Actor | null
   const subject = `Incoming inspection: lot ${data.lot} — ${lot.fitted} fitted, ${lot.needs_review} flagged, ${lot.rejected} refused`;
   const text = lotSummaryText(lot, {
     deviceType: lot.device_type,
-    uploadedAt: new Date(summary.created_at).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' }) + ' UTC',
+    uploadedAt: formatDateTime(summary.created_at),
     uploadedBy: summary.uploaded_by,
     sender,
     link: `${serverEnv().publicUrl}/upload/${summary.upload_id}/summary`,
