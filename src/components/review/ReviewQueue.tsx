@@ -97,12 +97,12 @@ export default function ReviewQueue() {
             <tr>
               {canChoose && <th className="w-10"><span className="sr-only">Choose</span></th>}
               <th>Serial</th>
-              <th>Type · lot</th>
+              <th className="hidden sm:table-cell">Type · lot</th>
               <th>Why it is here</th>
               <th className="text-right">IDSS</th>
               <th className="text-right">VP</th>
-              <th className="text-right">RMS / IDSS</th>
-              <th>Fitted</th>
+              <th className="hidden text-right sm:table-cell">RMS / IDSS</th>
+              <th className="hidden sm:table-cell">Fitted</th>
             </tr>
           </thead>
           <tbody>
@@ -118,7 +118,7 @@ export default function ReviewQueue() {
                 <td className="font-mono">
                   <a href={status === 'needs_review' ? `/review/${encodeURIComponent(it.serial)}` : `/parts/${encodeURIComponent(it.serial)}`}>{it.serial}</a>
                 </td>
-                <td>
+                <td className="hidden sm:table-cell">
                   {it.device_type}
                   {it.lot ? <span className="text-ink-faint"> · {it.lot}</span> : null}
                 </td>
@@ -127,14 +127,15 @@ export default function ReviewQueue() {
                   {it.flags.map((f) => (
                     <div key={f.code}>
                       <span className="tag-review mr-1">{flagWord(f.code)}</span>
-                      <span className="text-xs text-ink-soft">{f.message}</span>
+                      {/* On a phone the flag's name is enough here; the review page gives the whole message. */}
+                      <span className="hidden text-xs text-ink-soft sm:inline">{f.message}</span>
                     </div>
                   ))}
                 </td>
                 <td className="num">{q(it.idss_a, 'A', 2)}</td>
                 <td className="num">{q(it.vp_v, 'V', 2)}</td>
-                <td className="num">{percent(it.rms_rel)}</td>
-                <td className="whitespace-nowrap text-xs">{when(it.fitted_at)}</td>
+                <td className="num hidden sm:table-cell">{percent(it.rms_rel)}</td>
+                <td className="hidden whitespace-nowrap text-xs sm:table-cell">{when(it.fitted_at)}</td>
               </tr>
             ))}
           </tbody>
