@@ -57,11 +57,6 @@ export async function receiveSweepUpload({
   if (nulName >= 0) {
     throw new AppError('invalid_input', `File ${nulName + 1} of the request has a name with a NUL character ("${files[nulName].name.replace(/\u0000/g, '\\0')}"), which Sluice cannot store. Rename the file and send it again; nothing of this request was kept.`);
   }
-  // Refused before any byte is kept: a name PostgreSQL cannot store would leave a raw file with no row.
-  const nulName = files.findIndex((f) => f.name.includes('\u0000'));
-  if (nulName >= 0) {
-    throw new AppError('invalid_input', `File ${nulName + 1} of the request has a name with a NUL character ("${files[nulName].name.replace(/\u0000/g, '\\0')}"), which Sluice cannot store. Rename the file and send it again; nothing of this request was kept.`);
-  }
   const stored = await Promise.all(files.map((f) => storeUploadBytes(f.bytes)));
   const db = getDb();
   const shas = [...new Set(stored.map((s) => s.sha256))];
