@@ -24,6 +24,7 @@ interface FormState {
   idssPct: string;
   marginV: string;
   sameLot: boolean;
+  temperatureC: string;
   bins: string[];
   purpose: string;
 }
@@ -42,6 +43,7 @@ const INITIAL: FormState = {
   idssPct: String(Math.round(COMMON_PRACTICE_GRADES.maxIdssMismatch * 1000) / 10),
   marginV: '0.5',
   sameLot: false,
+  temperatureC: '25',
   bins: [],
   purpose: '',
 };
@@ -66,6 +68,7 @@ function requestBody(f: FormState) {
     max_idss_mismatch: idss === null ? null : idss / 100,
     ...(cascode ? { cascode_margin_v: num(f.marginV) ?? 0 } : {}),
     same_lot: f.sameLot,
+    temperature_c: num(f.temperatureC) ?? 25,
     ...(f.bins.length ? { bins: f.bins } : {}),
   };
 }
@@ -129,7 +132,12 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
         <h3 className="text-base">Set {set.index + 1}</h3>
         {matched && (
           <>
-            <span className="text-sm">|ΔVGS| <Within value={set.dvgs_v} limit={t.max_dvgs_v} show={(x) => millivolts(x)} /></span>
+            <span className="text-sm" data-testid="set-dvgs">
+              |ΔVGS| <Within value={set.dvgs_v} limit={t.max_dvgs_v} show={(x) => millivolts(x)} />
+              {set.dvgs_sigma_v !== undefined && (
+                <span className="text-ink-soft"> ± {millivolts(set.dvgs_sigma_v)} (1σ)</span>
+              )}
+            </span>
             <span className="text-sm">gm <Within value={set.gm_mismatch} limit={t.max_gm_mismatch} show={(x) => percent(x, 2)} /></span>
             <span className="text-sm">IDSS <Within value={set.idss_mismatch} limit={t.max_idss_mismatch} show={(x) => percent(x, 2)} /></span>
           </>
@@ -146,6 +154,12 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
           <a href={`${base}/model-cards`}>.model cards</a> · <a href={`${base}/figures.csv`}>CSV</a>
         </span>
       </header>
+      {matched && set.dvgs_sigma_v !== undefined && t.max_dvgs_v !== null && (
+        <p className="mb-2 text-xs text-ink-faint">
+          Counted against the |ΔVGS| limit: ΔVGS + {proposal.dvgs_guard_sigmas ?? 2}σ = {millivolts(set.dvgs_v + (proposal.dvgs_guard_sigmas ?? 2) * set.dvgs_sigma_v)}
+          {' '}at {proposal.temperature_c ?? 25} °C{set.parts.some((p) => p.temperature_shift_v) ? ' (parts measured at other temperatures corrected)' : ''}.
+        </p>
+      )}
       {outside.length > 0 && (
         <p className="notice-caution mb-3 text-sm" role="note" data-testid="set-grade-warning">
           Outside common-practice grades: {outside.map((w) => w.message).join('; ')}.
@@ -162,8 +176,10 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
               <th className="num !text-right">|ID| ({col.id.unit})</th>
               {cascode && <th className="num !text-right">|VDS| ({col.vds.unit})</th>}
               <th className="num !text-right">VGS ({col.vgs.unit})</th>
+              <th className="num !text-right">± 1σ</th>
               <th className="num !text-right">gm ({col.gm.unit})</th>
               <th className="num !text-right">IDSS ({col.idss.unit})</th>
+              <th>From</th>
               <th>Lot</th>
             </tr>
           </thead>
@@ -176,9 +192,11 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
                 <td>{p.location ?? <span className="text-ink-faint">not recorded</span>}</td>
                 <td className="num">{col.id.number(p.id_a)}</td>
                 {cascode && <td className="num">{col.vds.number(p.vds_v)}</td>}
-                <td className="num">{col.vgs.number(p.vgs_v)}</td>
-                <td className="num">{col.gm.number(p.gm_s)}</td>
+                <td className="num" data-testid={`vgs-${p.serial}`}>{col.vgs.number(p.vgs_v)}</td>
+                <td className="num">{p.vgs_sigma_v ? millivolts(p.vgs_sigma_v) : '—'}</td>
+                <td className="num" data-testid={`gm-${p.serial}`}>{col.gm.number(p.gm_s)}</td>
                 <td className="num">{col.idss.number(idssOf(p.idss_a))}</td>
+                <td>{p.source === 'measured' ? 'measurements' : <span className="tag-review" title="outside this part's measurements: from its fitted model">model</span>}</td>
                 <td>{p.lot ?? '—'}</td>
               </tr>
             ))}
@@ -372,6 +390,9 @@ export default function MatchRequest() {
                 </Field>
               </>
             )}
+            <Field id="m-temp" label="Compare at" unit="°C" hint="each part is corrected from its sweep's temperature">
+              <input id="m-temp" className="input" type="number" step="any" min={-60} max={200} value={form.temperatureC} onChange={(e) => set('temperatureC', e.target.value)} />
+            </Field>
             {cascode && (
               <Field id="m-margin" label="Cascode margin" unit="V" hint="how far the lower part stays above VDS(sat)">
                 <input id="m-margin" className="input" type="number" step="any" min={0} value={form.marginV} onChange={(e) => set('marginV', e.target.value)} />

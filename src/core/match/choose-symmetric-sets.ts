@@ -131,7 +131,7 @@ export function chooseSymmetricSets(
       for (let a = 0; a < m.length; a++)
         for (let b = a + 1; b < m.length; b++) {
           const x = m[a]!, y = m[b]!;
-          dv = Math.max(dv, Math.abs(V[x]! - V[y]!) + guard * Math.hypot(S[x]!, S[y]!));
+          dv = Math.max(dv, Math.abs(V[x]! - V[y]!) + guard * Math.sqrt(S[x]! * S[x]! + S[y]! * S[y]!));
         }
     }
     const dg = 1 - gMin / gMax, di = 1 - iMin / iMax;
@@ -142,7 +142,7 @@ export function chooseSymmetricSets(
   /** Cost of the pair at sorted positions i < j, or Infinity when it is not valid. */
   const pairCost = (i: number, j: number): number => {
     if (L[i] !== L[j]) return Infinity;
-    const dv = Math.abs(V[j]! - V[i]!) + guard * Math.hypot(S[i]!, S[j]!);
+    const dv = Math.abs(V[j]! - V[i]!) + guard * Math.sqrt(S[i]! * S[i]! + S[j]! * S[j]!);
     const g0 = G[i]!, g1 = G[j]!, i0 = I[i]!, i1 = I[j]!;
     const dg = g0 < g1 ? 1 - g0 / g1 : 1 - g1 / g0;
     const di = i0 < i1 ? 1 - i0 / i1 : 1 - i1 / i0;

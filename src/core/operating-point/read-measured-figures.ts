@@ -1,17 +1,11 @@
 import { vgsAtCurrentV, type JfetParams } from '../jfet-model';
-import {
-  F_C0,
-  F_C1,
-  F_C2,
-  F_COV,
-  F_EXP,
-  F_HI,
-  F_LO,
-  F_VGS,
-  stepBase,
-  tableSteps,
-  type OperatingTable,
-} from './operating-table';
+import { HEADER_FLOATS, STEP_FLOATS, type OperatingTable } from './operating-table';
+
+// The table layout (see `OperatingTable`), as local constants: this file is the hot path of
+// matching, and local constants fold where imported bindings may not.
+const HEADER = HEADER_FLOATS;
+const STEP = STEP_FLOATS;
+const F_VGS = 0, F_LO = 1, F_HI = 2, F_C0 = 3, F_C1 = 4, F_C2 = 5, F_COV = 6, F_EXP = 12;
 
 /**
  * Where a part is asked to run, N-equivalent and SI:
@@ -175,16 +169,15 @@ function finish(): null {
 
 /** Fills sv/si/sb with the steps measured in saturation at `vds`; returns how many. */
 function collectStepsAt(t: OperatingTable, params: JfetParams, vds: number): number {
-  const steps = tableSteps(t);
-  ensureScratch(steps);
   const d = t.data;
+  const steps = d[t.offset + 1]!;
+  ensureScratch(steps);
   st = t;
   sParams = params;
   sVds = vds;
   sX = vds - d[t.offset + 2]!;
   let n = 0;
-  for (let k = 0; k < steps; k++) {
-    const o = stepBase(t, k);
+  for (let k = 0, o = t.offset + HEADER; k < steps; k++, o += STEP) {
     if (!(vds >= d[o + F_LO]! - VDS_TOLERANCE_V && vds <= d[o + F_HI]! + VDS_TOLERANCE_V)) continue;
     sv[n] = d[o + F_VGS]!;
     si[n] = d[o + F_C0]! + sX * (d[o + F_C1]! + sX * d[o + F_C2]!);
@@ -209,11 +202,16 @@ function deltaOf(j: number): number {
   return sv[j]! - vgsAtCurrentV(sParams, si[j]!, sVds);
 }
 
-/** dVGS_model/dID at step j's current, to carry its current noise into δ. */
-function modelSlopeOf(j: number): number {
-  const i = si[j]!;
-  return (vgsAtCurrentV(sParams, i * (1 + 1e-6), sVds) - vgsAtCurrentV(sParams, i, sVds)) / (i * 1e-6);
+/**
+ * dVGS_model/dID at a current: 1/(2·sqrt(BETA·(1 + λ·VDS)·ID)) + RS, the series resistances'
+ * small effect on the internal VDS left out (it only carries noise into the uncertainty).
+ */
+function modelSlopeAt(i: number): number {
+  const p = sParams;
+  return 0.5 / Math.sqrt(p.betaAPerV2 * (1 + p.lambdaPerV * sVds) * i) + p.rsOhm;
 }
+
+const modelSlopeOf = (j: number) => modelSlopeAt(si[j]!);
 
 const exponentOf = (j: number) => st.data[sb[j]! + F_EXP]!;
 
@@ -277,24 +275,35 @@ function powerLawReading(n: number, k: number, idA: number): boolean {
   let dvdA = 0;
   let dvdB = 0;
   let v0 = 0;
+  const la = Math.log(ia);
+  const lb = Math.log(ib);
+  const l = Math.log(idA);
   for (let j = 0; j < 2; j++) {
     const m = j === 0 ? m0 : m1;
-    const ya = Math.pow(ia, 1 / m);
-    const yb = Math.pow(ib, 1 / m);
-    const y = Math.pow(idA, 1 / m);
+    if (j === 1 && m1 === m0) {
+      plSpread = 0;
+      break;
+    }
+    const ya = Math.exp(la / m);
+    const yb = Math.exp(lb / m);
+    const y = Math.exp(l / m);
     const dy = yb - ya;
     const vj = sv[a]! + (h * (y - ya)) / dy;
     if (j === 0) v0 = vj;
     else plSpread = Math.abs(v0 - vj) / 2;
-    v += vj / 2;
-    gm += (m * (idA / y) * dy) / h / 2;
+    v += vj;
+    gm += (m * (idA / y) * dy) / h;
     // ∂v/∂I at each anchor: ∂v/∂y · ∂y/∂I, with ∂y/∂I = y/(m·I).
-    dvdA += ((h * (y - yb)) / (dy * dy)) * (ya / (m * ia)) / 2;
-    dvdB += ((-h * (y - ya)) / (dy * dy)) * (yb / (m * ib)) / 2;
+    dvdA += ((h * (y - yb)) / (dy * dy)) * (ya / (m * ia));
+    dvdB += ((-h * (y - ya)) / (dy * dy)) * (yb / (m * ib));
   }
-  plV = v;
-  plGm = gm;
-  plNoise = Math.hypot(dvdA * sigmaOf(a), dvdB * sigmaOf(a + 1));
+  // Mean of the two readings (one when both exponents are the same).
+  const readings = m1 === m0 ? 1 : 2;
+  plV = v / readings;
+  plGm = gm / readings;
+  const na = (dvdA / readings) * sigmaOf(a);
+  const nb = (dvdB / readings) * sigmaOf(a + 1);
+  plNoise = Math.sqrt(na * na + nb * nb);
   return true;
 }
 
@@ -308,7 +317,7 @@ function backboneReading(n: number, k: number, idA: number): boolean {
   let b = k + 2 < n ? k : k - 1;
   while (b >= 0 && b + 2 < n && !(si[b]! > 0)) b++;
   const model = vgsAtCurrentV(sParams, idA, sVds);
-  const dModel = (vgsAtCurrentV(sParams, idA * (1 + 1e-6), sVds) - model) / (idA * 1e-6);
+  const dModel = modelSlopeAt(idA);
   const u = Math.sqrt(idA);
   if (b < 0 || b + 2 >= n || !(si[b]! > 0)) {
     // Two conducting steps only: δ linear in sqrt(ID).
@@ -321,7 +330,9 @@ function backboneReading(n: number, k: number, idA: number): boolean {
     const dDelta = (d1 - d0) / (u1 - u0) / (2 * u);
     bbV = model + (1 - w1) * d0 + w1 * d1;
     bbGm = 1 / (dModel + dDelta);
-    bbNoise = Math.hypot((1 - w1) * modelSlopeOf(k) * sigmaOf(k), w1 * modelSlopeOf(k + 1) * sigmaOf(k + 1));
+    const n0 = (1 - w1) * modelSlopeOf(k) * sigmaOf(k);
+    const n1 = w1 * modelSlopeOf(k + 1) * sigmaOf(k + 1);
+    bbNoise = Math.sqrt(n0 * n0 + n1 * n1);
     return true;
   }
   const x0 = Math.sqrt(si[b]!);
@@ -339,7 +350,10 @@ function backboneReading(n: number, k: number, idA: number): boolean {
   const dDelta = (dl0 * d0 + dl1 * d1 + dl2 * d2) / (2 * u);
   bbV = model + l0 * d0 + l1 * d1 + l2 * d2;
   bbGm = 1 / (dModel + dDelta);
-  bbNoise = Math.hypot(l0 * modelSlopeOf(b) * sigmaOf(b), l1 * modelSlopeOf(b + 1) * sigmaOf(b + 1), l2 * modelSlopeOf(b + 2) * sigmaOf(b + 2));
+  const n0 = l0 * modelSlopeOf(b) * sigmaOf(b);
+  const n1 = l1 * modelSlopeOf(b + 1) * sigmaOf(b + 1);
+  const n2 = l2 * modelSlopeOf(b + 2) * sigmaOf(b + 2);
+  bbNoise = Math.sqrt(n0 * n0 + n1 * n1 + n2 * n2);
   return true;
 }
 
