@@ -21,7 +21,7 @@ interface QueueItem {
 
 /** Parts waiting for an inspector (or for a retest), oldest first, flags in plain words. */
 export default function ReviewQueue() {
-  const [status, setStatus] = useState<'needs_review' | 'retest'>('needs_review');
+  const [status, setStatus] = useState<'needs_review' | 'retest' | 'model_disagrees'>('needs_review');
   const { data, error, loading, reload } = useApi<{ total: number; items: QueueItem[] }>(`/api/review?status=${status}`);
   const [chosen, setChosen] = useState<Set<string>>(new Set());
   const [note, setNote] = useState('');
@@ -60,6 +60,7 @@ export default function ReviewQueue() {
           tabs={[
             { id: 'needs_review', label: 'Waiting for review' },
             { id: 'retest', label: 'Marked for retest' },
+            { id: 'model_disagrees', label: 'Model differs from measurements' },
           ]}
           selected={status}
           onSelect={(s) => (setStatus(s), setChosen(new Set()))}
@@ -69,7 +70,13 @@ export default function ReviewQueue() {
       {loading && !data && <Loading what="the review queue" />}
       {error && <ErrorNotice error={error} retry={reload} />}
       {data && data.items.length === 0 && (
-        <Empty>{status === 'needs_review' ? 'Nothing is waiting for review: every fit so far was clean or has been decided.' : 'No parts are waiting for a retest.'}</Empty>
+        <Empty>
+          {status === 'needs_review'
+            ? 'Nothing is waiting for review: every fit so far was clean or has been decided.'
+            : status === 'retest'
+              ? 'No parts are waiting for a retest.'
+              : 'No part’s fitted model differs from its measurements by more than the limit.'}
+        </Empty>
       )}
       {canChoose && items.length > 0 && (
         <div className="card flex flex-wrap items-end gap-3 p-3">

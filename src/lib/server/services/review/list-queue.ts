@@ -1,11 +1,15 @@
-import { asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, ne, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import type { FitResult } from '../../../../core/fit/definitions';
 import { getDb, schema } from '../../../../db/client';
 import { requirePermission, type Actor } from '../../identity';
 
 export const ReviewQueueInput = z.object({
-  status: z.enum(['needs_review', 'retest']).default('needs_review'),
+  /**
+   * `model_disagrees` lists parts whose fitted model puts VGS away from the measured one (an
+   * advisory flag: the parts are not held, this list only informs).
+   */
+  status: z.enum(['needs_review', 'retest', 'model_disagrees']).default('needs_review'),
   limit: z.coerce.number().int().min(1).max(500).default(200),
 });
 
@@ -14,6 +18,10 @@ export async function listReviewQueue({ actor, input }: { actor: Actor | null; i
   requirePermission(actor, 'fits:review');
   const f = ReviewQueueInput.parse(input ?? {});
   const db = getDb();
+  const which: SQL =
+    f.status === 'model_disagrees'
+      ? and(sql`'model_disagrees' = ANY(${schema.fit.flags})`, ne(schema.part.status, 'scrapped'))!
+      : eq(schema.part.status, f.status);
   const rows = await db
     .select({ part: schema.part, type: schema.deviceType, lot: schema.lot, fit: schema.fit, fileName: schema.uploadFile.originalName })
     .from(schema.part)
@@ -22,13 +30,14 @@ export async function listReviewQueue({ actor, input }: { actor: Actor | null; i
     .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
     .leftJoin(schema.uploadFile, eq(schema.uploadFile.id, schema.sweep.uploadFileId))
-    .where(eq(schema.part.status, f.status))
+    .where(which)
     .orderBy(asc(schema.fit.createdAt), asc(schema.part.serial))
     .limit(f.limit);
   const [{ total }] = await db
     .select({ total: sql<number>`count(*)::int` })
     .from(schema.part)
-    .where(eq(schema.part.status, f.status));
+    .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
+    .where(which);
   return {
     status: f.status,
     total,
