@@ -123,16 +123,16 @@ export async function insertMatchStock(o: StockOptions): Promise<{ typeId: numbe
 }
 
 /** Current fit parameters of parts by serial, read from the database. */
-export async function fitsBySerial(serials: string[]): Promise<Map<string, JfetParams & { status: string; typeId: number }>> {
+export async function fitsBySerial(serials: string[]): Promise<Map<string, JfetParams & { status: string; typeId: number; partId: number }>> {
   const rows = await getDb()
-    .select({ serial: schema.part.serial, status: schema.part.status, typeId: schema.part.deviceTypeId, f: schema.fit })
+    .select({ serial: schema.part.serial, status: schema.part.status, typeId: schema.part.deviceTypeId, partId: schema.part.id, f: schema.fit })
     .from(schema.part)
     .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .where(inArray(schema.part.serial, serials));
   return new Map(
     rows.map((r) => [
       r.serial,
-      { vtoV: r.f.vtoV, betaAPerV2: r.f.betaAPerV2, lambdaPerV: r.f.lambdaPerV, rsOhm: r.f.rsOhm, rdOhm: r.f.rdOhm, status: r.status, typeId: r.typeId },
+      { vtoV: r.f.vtoV, betaAPerV2: r.f.betaAPerV2, lambdaPerV: r.f.lambdaPerV, rsOhm: r.f.rsOhm, rdOhm: r.f.rdOhm, status: r.status, typeId: r.typeId, partId: r.partId },
     ]),
   );
 }

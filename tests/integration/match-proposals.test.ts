@@ -6,6 +6,8 @@ import { closeDb, getDb, schema } from '../../src/db/client';
 import type { ProposalView } from '../../src/lib/server/services/match/proposal-view';
 import { signIn, type Session } from '../helpers/http';
 import { fitsBySerial, insertMatchStock } from './match-fixture';
+import { partOperatingFigures } from '../../src/core/operating-point/part-operating-figures';
+import { loadPartBases } from '../../src/lib/server/services/parts/part-basis';
 
 let designer: Session;
 let stores: Session;
@@ -71,15 +73,27 @@ describe('match proposals on demo-like stock', () => {
     const serials = p.sets.flatMap((s) => s.parts.map((x) => x.serial));
     expect(new Set(serials).size).toBe(10); // disjoint
     const fits = await fitsBySerial(serials);
+    const bases = await loadPartBases(getDb(), [...fits.values()].map((f) => f.partId));
+    const basisOf = (serial: string) => [...bases.values()].find((b) => b.serial === serial)!.basis;
     for (const set of p.sets) {
       expect(set.parts).toHaveLength(2);
-      // Re-computed with the model of src/core/jfet-model.ts (saturation: VGS = VTO + sqrt(ID/(BETA(1+λVDS)))),
-      // the ngspice level-1 equations (PRODUCT.md), from each part's stored current fit.
-      const vgs = set.parts.map((x) => vgsAtCurrentV(fits.get(x.serial)!, 1e-3, 10));
-      expect(Math.abs(vgs[0]! - vgs[1]!)).toBeLessThanOrEqual(0.01 + 1e-12);
+      // Re-computed from each part's stored current fit and measurements through the one source of
+      // operating-point figures (checked against ngspice in tests/unit/operating-point-ngspice.test.ts);
+      // the guard: ΔVGS + 2σ within the tolerance.
+      const figs = set.parts.map((x) => {
+        const e = partOperatingFigures(basisOf(x.serial), { kind: 'current', idA: 1e-3, vdsV: 10 });
+        if (!e.usable) throw new Error(e.reason);
+        return e.figures;
+      });
+      const vgs = figs.map((f) => f.vgsV);
+      const sigma = Math.hypot(figs[0]!.vgsSigmaV || 0, figs[1]!.vgsSigmaV || 0);
+      expect(Math.abs(vgs[0]! - vgs[1]!) + 2 * sigma).toBeLessThanOrEqual(0.01 + 1e-12);
       expect(set.dvgs_v).toBeCloseTo(Math.abs(vgs[0]! - vgs[1]!), 12);
+      expect(set.dvgs_sigma_v).toBeCloseTo(sigma, 12);
       for (const [k, part] of set.parts.entries()) {
         expect(part.vgs_v).toBeCloseTo(vgs[k]!, 12); // N-channel: datasheet sign is the model's sign
+        expect(part.gm_s).toBeCloseTo(figs[k]!.gmS, 12);
+        if (figs[k]!.source === 'model') {
         expect(fits.get(part.serial)!.status).toBe('in_stock');
         expect(part.location).not.toBeNull();
         expect(part.bin_code).not.toBeNull();
@@ -89,6 +103,8 @@ describe('match proposals on demo-like stock', () => {
         const f = fits.get(part.serial)!;
         const gmInt = 2 * Math.sqrt(f.betaAPerV2 * 1e-3 * (1 + f.lambdaPerV * (10 - 1e-3 * (f.rsOhm + f.rdOhm))));
         expect(part.gm_s).toBeCloseTo(gmInt / (1 + gmInt * f.rsOhm), 12);
+        expect(part.vgs_v).toBeCloseTo(vgsAtCurrentV(f, 1e-3, 10), 12);
+        }
       }
     }
     expect(p.looser.all_times_2).toBe(5);

@@ -39,8 +39,8 @@ export function MatchedSetCard({ result }: { result: SetResult }) {
                     {p.operating_point ? (
                       <>
                         <td className="num">{p.idss_a !== null ? formatQuantity(p.idss_a, 'A') : '—'}</td>
-                        <td className="num">{formatQuantity(p.operating_point.vgs_v, 'V')}</td>
-                        <td className="num">{formatQuantity(p.operating_point.gm_s, 'S')}</td>
+                        <td className="num" data-testid={`set-vgs-${p.serial}`} data-value={p.operating_point.vgs_v}>{formatQuantity(p.operating_point.vgs_v, 'V')}</td>
+                        <td className="num" data-testid={`set-gm-${p.serial}`} data-value={p.operating_point.gm_s}>{formatQuantity(p.operating_point.gm_s, 'S')}</td>
                         <td className="num">{formatQuantity(p.operating_point.source_resistor_ohm, 'Ω')}</td>
                         <td className="num">{p.matched ? formatQuantity(p.matched.vgs_v, 'V') : '—'}</td>
                       </>

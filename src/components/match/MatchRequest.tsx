@@ -192,9 +192,9 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
                 <td>{p.location ?? <span className="text-ink-faint">not recorded</span>}</td>
                 <td className="num">{col.id.number(p.id_a)}</td>
                 {cascode && <td className="num">{col.vds.number(p.vds_v)}</td>}
-                <td className="num" data-testid={`vgs-${p.serial}`}>{col.vgs.number(p.vgs_v)}</td>
+                <td className="num" data-testid={`vgs-${p.serial}`} data-value={p.vgs_v}>{col.vgs.number(p.vgs_v)}</td>
                 <td className="num">{p.vgs_sigma_v ? millivolts(p.vgs_sigma_v) : '—'}</td>
-                <td className="num" data-testid={`gm-${p.serial}`}>{col.gm.number(p.gm_s)}</td>
+                <td className="num" data-testid={`gm-${p.serial}`} data-value={p.gm_s}>{col.gm.number(p.gm_s)}</td>
                 <td className="num">{col.idss.number(idssOf(p.idss_a))}</td>
                 <td>{p.source === 'measured' ? 'measurements' : <span className="tag-review" title="outside this part's measurements: from its fitted model">model</span>}</td>
                 <td>{p.lot ?? '—'}</td>

@@ -151,9 +151,9 @@ function OperatingPointForm({ serial, channel }: { serial: string; channel: 'n' 
       {result && (
         <dl className="basis-full grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" data-testid="operating-point-result">
           <dt>VGS</dt>
-          <dd data-testid="op-vgs">{formatMeasured(result.vgs_v, result.uncertainty_v, 'V').text}</dd>
+          <dd data-testid="op-vgs" data-value={result.vgs_v}>{formatMeasured(result.vgs_v, result.uncertainty_v, 'V').text}</dd>
           <dt>gm</dt>
-          <dd data-testid="op-gm">{formatSignificant(result.gm_s, 'S', 4)}</dd>
+          <dd data-testid="op-gm" data-value={result.gm_s}>{formatSignificant(result.gm_s, 'S', 4)}</dd>
           <dt>gos</dt>
           <dd>{result.gos_s === null ? '—' : formatSignificant(result.gos_s, 'S', 3)}</dd>
           <dt>From</dt>

@@ -58,7 +58,8 @@ export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'
     review: f.review,
     params: basis.params,
     basis,
-    idssA: idss.usable ? idss.figures.idssA : f.idssA,
+    // The fit's own column when the figure comes from the model, so both paths agree to the last digit.
+    idssA: idss.usable && idss.figures.source === 'measured' ? idss.figures.idssA : f.idssA,
     idssVdsV: f.idssVdsV,
     vpV: f.vpV,
   };
