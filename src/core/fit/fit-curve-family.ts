@@ -281,7 +281,7 @@ function assemble(
   if (bounded.length > 0) flags.push(parameterAtBoundFlag(bounded));
   if (!solution.converged) flags.push(noConvergenceFlag(solution.iterations));
 
-  const operatingTable = buildOperatingTable(curves, params.vtoV);
+  const operatingTable = buildOperatingTable(curves, params.vtoV, params.lambdaPerV);
   const modelAgreement = compareModelWithMeasurements(operatingTable, params, options.vdsTestV);
   if (modelAgreement?.flagged) flags.push(modelDisagreesFlag(modelAgreement));
   const modelVgsSigmaV = Math.max(modelAgreement?.maxDisagreementV ?? 0, se(0));

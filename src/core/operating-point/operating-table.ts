@@ -49,11 +49,12 @@ const MIN_SPAN_QUADRATIC_V = 2;
 
 /**
  * The operating table of one fitted sweep: `curves` as the fit saw them (reviewer and flag
- * exclusions applied), `vtoV` the fitted VTO, used only to tell where saturation starts.
- * Steps with fewer than 3 saturated points are left out (a curve cut short by the
- * instrument's power limit keeps the points it has). Null when no step is left.
+ * exclusions applied), `vtoV` the fitted VTO (where saturation starts) and `lambdaPerV` the
+ * fitted λ (the slope of a step with too few points to show its own). A step with one or two
+ * saturated points — a transfer sweep's gate voltage, or a curve cut short by the instrument's
+ * power limit — is kept and read only at the VDS it was measured at. Null when no step is left.
  */
-export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: number): OperatingTable | null {
+export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: number, lambdaPerV = 0): OperatingTable | null {
   interface Step { vgs: number; lo: number; hi: number; c: number[]; cov: number[] }
   const steps: Step[] = [];
   let vdsSum = 0;
@@ -65,7 +66,7 @@ export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: numb
     for (let k = 0; k < curve.vdsV.length; k++) {
       if (curve.included[k] && curve.vdsV[k] >= knee) idx.push(k);
     }
-    if (idx.length < MIN_POINTS_LINE) continue;
+    if (idx.length === 0) continue;
     picked.push({ curve, idx });
     for (const k of idx) {
       vdsSum += curve.vdsV[k];
@@ -78,6 +79,21 @@ export function buildOperatingTable(curves: readonly PreparedCurve[], vtoV: numb
   for (const { curve, idx } of picked) {
     const lo = curve.vdsV[idx[0]];
     const hi = curve.vdsV[idx[idx.length - 1]];
+    if (idx.length < MIN_POINTS_LINE) {
+      // One or two saturated points (a transfer sweep's gate voltage, or a curve the instrument
+      // cut short): read only at the VDS they were taken at, the slope from the fitted λ.
+      let iSum = 0;
+      let vSum = 0;
+      for (const k of idx) {
+        iSum += curve.idA[k] - offsetA;
+        vSum += curve.vdsV[k];
+      }
+      const i0 = iSum / idx.length;
+      const v0 = vSum / idx.length;
+      const slope = (lambdaPerV * i0) / (1 + lambdaPerV * v0);
+      steps.push({ vgs: curve.vgsV, lo, hi, c: [i0 + slope * (ref - v0), slope, 0], cov: [0, 0, 0, 0, 0, 0] });
+      continue;
+    }
     let fit = idx.length >= MIN_POINTS_QUADRATIC && hi - lo >= MIN_SPAN_QUADRATIC_V ? fitPolynomial(curve, idx, ref, 2, offsetA) : null;
     // Keep the bend only where the data show one (|c2| over 3 standard errors): a line reads
     // the current with less noise.

@@ -1,3 +1,5 @@
+import { partOperatingFigures } from '../../../../core/operating-point/part-operating-figures';
+import { loadPartBases } from '../parts/part-basis';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { formatQuantity } from '../../../../core/units/format-quantity';
 import { getDb, schema } from '../../../../db/client';
@@ -42,7 +44,7 @@ export async function partLabels({ actor, serials }: { actor: Actor | null; seri
   const list = collectScanBatch(serials).serials.slice(0, 500);
   if (!list.length) return { labels: [], unknown: [] };
   const rows = await getDb()
-    .select({ serial: schema.part.serial, type: schema.deviceType.name, bin: schema.bin.code, idssA: schema.fit.idssA, vpV: schema.fit.vpV, vds: schema.fit.idssVdsV, home: home.name, at: schema.location.name })
+    .select({ partId: schema.part.id, serial: schema.part.serial, type: schema.deviceType.name, bin: schema.bin.code, idssA: schema.fit.idssA, vpV: schema.fit.vpV, vds: schema.fit.idssVdsV, home: home.name, at: schema.location.name })
     .from(schema.part)
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
@@ -51,13 +53,20 @@ export async function partLabels({ actor, serials }: { actor: Actor | null; seri
     .leftJoin(schema.fit, and(eq(schema.fit.id, schema.part.currentFitId)))
     .where(inArray(schema.part.serial, list));
   const bySerial = new Map(rows.map((r) => [r.serial, r]));
+  // IDSS as every view shows it: from the part's measurements at its test VDS, at 25 °C.
+  const bases = await loadPartBases(getDb(), rows.map((r) => r.partId));
+  const idssOf = (r: (typeof rows)[number]) => {
+    const b = bases.get(r.partId);
+    const e = b && r.vds !== null ? partOperatingFigures(b.basis, { kind: 'idss', vdsV: r.vds }) : null;
+    return e?.usable ? e.figures.idssA : r.idssA;
+  };
   const labels: LabelContent[] = [];
   for (const s of list) {
     const r = bySerial.get(s);
     if (!r) continue;
     const figures =
       r.idssA !== null && r.vpV !== null
-        ? [`IDSS ${formatQuantity(r.idssA, 'A', 2)} at ${r.vds} V`, `VP ${formatQuantity(r.vpV, 'V', 2)}`]
+        ? [`IDSS ${formatQuantity(idssOf(r)!, 'A', 2)} at ${r.vds} V`, `VP ${formatQuantity(r.vpV, 'V', 2)}`]
         : ['not yet fitted'];
     const where = r.at ?? (r.home ? `${r.home} (bin home)` : null);
     labels.push({ barcodeText: r.serial, title: r.serial, lines: [`${r.type}${r.bin ? ` · bin ${r.bin}` : ''}`, ...figures, ...(where ? [where] : [])] });

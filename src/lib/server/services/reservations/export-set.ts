@@ -19,9 +19,10 @@ export interface ExportFile {
 }
 
 const CSV_COLUMNS = [
-  'set', 'role', 'cascode', 'serial', 'lot', 'bin', 'location', 'id_a', 'vds_v', 'vgs_v', 'gm_s', 'idss_a', 'vds_sat_v',
+  'set', 'role', 'cascode', 'serial', 'lot', 'bin', 'location', 'id_a', 'vds_v', 'vgs_v', 'vgs_sigma_v', 'gm_s', 'idss_a', 'vds_sat_v',
+  'figures_from', 'compared_at_c', 'temperature_shift_v',
   'vto_v', 'beta_a_per_v2', 'lambda_per_v', 'rs_ohm', 'rd_ohm', 'temperature_c',
-  'set_dvgs_v', 'set_gm_mismatch', 'set_idss_mismatch', 'set_cascode_headroom_v',
+  'set_dvgs_v', 'set_dvgs_sigma_v', 'set_gm_mismatch', 'set_idss_mismatch', 'set_cascode_headroom_v',
 ] as const;
 
 
@@ -52,7 +53,7 @@ async function exportSet(result: StoredProposalResult, setNo: number, label: str
   if (format === 'spice') {
     const lines = [
       `* Sluice matched set ${setNo} of ${label}: ${result.device_type.name}, ${result.shape.replace(/_/g, ' ')}`,
-      `* matched at ${describeOperatingPoint(result.operating_point)}; |dVGS| = ${fig(set.dvgs_v, 'V', 3)}, gm mismatch = ${ascii(formatPercent(set.gm_mismatch, 2))}, IDSS mismatch = ${ascii(formatPercent(set.idss_mismatch, 2))}`,
+      `* matched at ${describeOperatingPoint(result.operating_point)}; |dVGS| = ${fig(set.dvgs_v, 'V', 3)}${set.dvgs_sigma_v ? ` +- ${fig(set.dvgs_sigma_v, 'V', 2)} (1 sigma)` : ''} at ${result.temperature_c ?? 25} C, gm mismatch = ${ascii(formatPercent(set.gm_mismatch, 2))}, IDSS mismatch = ${ascii(formatPercent(set.idss_mismatch, 2))}`,
     ];
     for (const p of set.parts) {
       const f = fitOf.get(p.part_id);
@@ -76,9 +77,10 @@ async function exportSet(result: StoredProposalResult, setNo: number, label: str
     const f = fitOf.get(p.part_id);
     return [
       setNo, p.role, p.cascode_index !== undefined ? p.cascode_index + 1 : '', p.serial, p.lot, p.bin_code, p.location,
-      channel === 'n' ? p.id_a : -p.id_a, channel === 'n' ? p.vds_v : -p.vds_v, p.vgs_v, p.gm_s, p.idss_a, p.vds_sat_v,
+      channel === 'n' ? p.id_a : -p.id_a, channel === 'n' ? p.vds_v : -p.vds_v, p.vgs_v, p.vgs_sigma_v ?? '', p.gm_s, p.idss_a, p.vds_sat_v,
+      p.source ?? 'model', result.temperature_c ?? 25, p.temperature_shift_v ?? 0,
       f?.fit.vtoV, f?.fit.betaAPerV2, f?.fit.lambdaPerV, f?.fit.rsOhm, f?.fit.rdOhm, f?.temperatureC,
-      set.dvgs_v, set.gm_mismatch, set.idss_mismatch, set.cascode_headroom_v,
+      set.dvgs_v, set.dvgs_sigma_v ?? '', set.gm_mismatch, set.idss_mismatch, set.cascode_headroom_v,
     ];
   });
   return { filename: `${base}.csv`, contentType: 'text/csv; charset=utf-8', body: writeCsv(CSV_COLUMNS, csvRows) };
