@@ -64,7 +64,7 @@ describe('mail to the designer when a reserved part changes', () => {
     const r = await reservePair('MT-MAIL', 'card comment check');
     const text = await (await designer.fetch(`/api/reservations/${r.reservationId}/sets/1/model-cards`)).text();
     const comment = text.split('\n').find((l) => l.startsWith('* matched at'))!;
-    expect(comment).toMatch(/^\* matched at ID = 1\.000 mA, \|VDS\| = 10\.0 V; \|dVGS\| = [\d.]+ [mu]?V, gm mismatch = \d+\.\d\d %, IDSS mismatch = \d+\.\d\d %$/);
+    expect(comment).toMatch(/^\* matched at ID = 1\.000 mA, \|VDS\| = 10\.0 V; \|dVGS\| = [\d.]+ [mu]?V( \+- [\d.]+ [mu]?V \(1 sigma\))? at -?[\d.]+ C, gm mismatch = \d+\.\d\d %, IDSS mismatch = \d+\.\d\d %$/);
     expect(comment).not.toMatch(/\d{7,}/);
   });
 
