@@ -44,7 +44,8 @@ export async function loadPartBases(db: DbOrTx, partIds: readonly number[]): Pro
     .from(schema.part)
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .innerJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
-    .innerJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
+    // A fit always has its sweep in the app; rows written by imports or fixtures may not.
+    .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
     .where(inArray(schema.part.id, [...partIds]));
   return new Map(
     rows.map((r) => [
