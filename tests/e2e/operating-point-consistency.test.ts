@@ -35,6 +35,10 @@ describe('the same part at the same point shows the same figures everywhere', ()
     const d = await ctx.newPage();
     await signInThroughForm(d, 'designer@demo.sluice.test', undefined, '/match');
     await d.getByRole('form', { name: 'Match request' }).waitFor();
+    // The demo type, whose parts were fitted from real sweeps (other suites add types of their own).
+    const type = d.getByLabel('Device type');
+    await type.locator('option', { hasText: 'WS-N30' }).first().waitFor({ state: 'attached' });
+    await type.selectOption((await type.locator('option', { hasText: 'WS-N30' }).first().getAttribute('value'))!);
     await d.getByLabel('How many sets').fill('1');
     await d.getByLabel(/Drain current ID/).fill('1');
     await d.getByLabel(/Drain–source voltage VDS/).fill('10');
