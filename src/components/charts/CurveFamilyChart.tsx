@@ -4,7 +4,8 @@ import type { JfetParams } from '../../core/jfet-model';
 import { curveColour, measuredPoints, modelLines, vgsLabel, type ApiCurve, type MeasuredPoint } from './chart-data';
 import { useWidth } from './use-width';
 
-const theme = buildChartTheme({
+/** The charts' look, shared by every xychart on the part page. */
+export const chartTheme = buildChartTheme({
   backgroundColor: '#ffffff',
   colors: ['#217e7a'],
   gridColor: '#d9d7cc',
@@ -112,7 +113,7 @@ export default function CurveFamilyChart({ curves, channel, params, excluded, on
       <XYChart
         width={width}
         height={height}
-        theme={theme}
+        theme={chartTheme}
         margin={{ top: 12, right: 16, bottom: 46, left: 58 }}
         xScale={{ type: 'linear', domain: [0, vdsMax], nice: true }}
         yScale={{ type: 'linear', domain: [0, idMax * 1.06], nice: true }}

@@ -1,19 +1,11 @@
-import { Axis, GlyphSeries, Grid, LineSeries, XYChart, buildChartTheme } from '@visx/xychart';
+import { Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
+import { chartTheme } from '../charts/CurveFamilyChart';
 import { useState, type FormEvent } from 'react';
 import { formatMeasured, formatSignificant } from '../../core/units/format-quantity';
 import { ApiError, apiFetch } from '../ui/api-client';
 import { useWidth } from '../charts/use-width';
 import type { OperatingPointJson, PartOperatingJson } from './part-types';
 
-const theme = buildChartTheme({
-  backgroundColor: '#ffffff',
-  colors: ['#217e7a', '#9a5b13'],
-  gridColor: '#d9d7cc',
-  gridColorDark: '#6b7c85',
-  tickLength: 4,
-  svgLabelSmall: { fill: '#3d4f59', fontSize: 11, fontFamily: '"Source Sans 3", system-ui, sans-serif' },
-  svgLabelBig: { fill: '#15232b', fontSize: 12, fontFamily: '"Source Sans 3", system-ui, sans-serif' },
-});
 
 interface XY {
   x: number;
@@ -85,12 +77,12 @@ export default function OperatingFiguresPanel({ serial, channel, operating }: { 
           </div>
           <div ref={ref} className="mt-2" aria-label={`Transfer curve at ${Math.abs(agreement.vds_v)} V: measured gate steps and the fitted model`} role="img">
             {width > 0 && measured.length > 0 && (
-              <XYChart height={260} width={width} theme={theme} xScale={{ type: 'linear', zero: false }} yScale={{ type: 'linear', zero: true }}>
+              <XYChart height={260} width={width} theme={chartTheme} xScale={{ type: 'linear', zero: false }} yScale={{ type: 'linear', zero: true }}>
                 <Grid columns={false} numTicks={5} />
                 <Axis orientation="bottom" label={`VGS (V)${channel === 'p' ? ', datasheet sign' : ''}`} numTicks={6} />
                 <Axis orientation="left" label="|ID| (mA)" numTicks={5} />
                 <LineSeries dataKey="fitted model" data={model} xAccessor={(d) => d.x} yAccessor={(d) => d.y} />
-                <GlyphSeries dataKey="measured steps" data={measured} xAccessor={(d) => d.x} yAccessor={(d) => d.y} size={7} />
+                <GlyphSeries dataKey="measured steps" data={measured} xAccessor={(d) => d.x} yAccessor={(d) => d.y} size={7} colorAccessor={() => '#9a5b13'} />
                 <GlyphSeries dataKey="compared points" data={marks} xAccessor={(d) => d.x} yAccessor={(d) => d.y} size={5} colorAccessor={() => '#b42318'} />
               </XYChart>
             )}

@@ -1,16 +1,13 @@
 import { fromNEquivalent, type Channel } from '../jfet-model';
 import { measureSetMismatch, type SetMismatch } from '../match/set-mismatch';
-import { partOperatingFigures, type PartBasis } from '../operating-point/part-operating-figures';
+import { partOperatingFigures, type OperatingRequest, type PartBasis } from '../operating-point/part-operating-figures';
 
 /**
  * A reserved set's figures before and after one of its parts changed (a refit, a retest, a
  * scrap), at the reservation's operating point, from the parts' current fits through
  * `partOperatingFigures` (measured where the sweep reaches the point).
  */
-export type ReservedOperatingPoint =
-  | { kind: 'current'; idA: number; vdsV: number }
-  | { kind: 'idss'; vdsV: number }
-  | { kind: 'self_bias'; rsOhm: number; vdsV: number };
+export type ReservedOperatingPoint = OperatingRequest;
 
 export interface ReservedPartInput {
   serial: string;
