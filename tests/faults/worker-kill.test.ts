@@ -83,13 +83,19 @@ describe('kill -9 of the worker in the middle of a 500-file batch', () => {
       'the upload to show a file being retried',
       250,
     );
-    expect(seenRetry).toMatchObject({ attempt: 2, attempts: 5 });
+    // When the kill fell between storing a batch and completing its job, every file already
+    // reads fitted and the upload never shows a retry; the job is retried all the same.
+    if (seenRetry) console.log(`[faults] the upload showed attempt ${seenRetry.attempt} of ${seenRetry.attempts}`);
     await waitFor(
       async () => (await query(`select 1 from pgboss.job where id = any($1::uuid[]) and state = 'completed'`, [ids])).length === ids.length,
       90_000,
       'the orphaned jobs to be done again',
       250,
     );
+    // Every job the dead worker held was taken up again: expired once, completed on a later attempt.
+    const retried = await query<{ retry_count: number }>(`select retry_count from pgboss.job where id = any($1::uuid[])`, [ids]);
+    expect(retried).toHaveLength(ids.length);
+    expect(retried.every((j) => j.retry_count >= 1)).toBe(true);
     const retriedAt = Date.now();
     await waitFor(async () => (await done()) === FILES, 90_000, 'every file to be done', 250);
     console.log(
