@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { E24 } from '../../src/core/estimates/preferred-values';
+import { closeDb, getDb, schema } from '~/db/client';
+import { E24 } from '~/core/estimates/preferred-values';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL } from '../helpers/http';
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { signIn } from '../helpers/http';
-import { intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model';
+import { intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
 
 /**
  * The part page shows what the intake did to a real tracer's file (issue: notes on the part

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL } from '../helpers/http';
 import { insertMatchStock } from '../integration/match-fixture';

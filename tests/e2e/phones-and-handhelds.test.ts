@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { and, eq, inArray, ne } from 'drizzle-orm';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL, signIn } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
-import { seededRandom, simulateSweepCsv } from '../../src/lib/server/services/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '~/lib/server/services/intake/simulated-sweep';
 
 /**
  * Issue 13, item 1 (and the stores and inspector additions): every role's main page at phone

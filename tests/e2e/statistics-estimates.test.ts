@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL } from '../helpers/http';
 

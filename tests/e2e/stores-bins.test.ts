@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { closeDb } from '../../src/db/client';
+import { closeDb } from '~/db/client';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL, signIn } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, uniqueName } from '../integration/stock-fixtures';

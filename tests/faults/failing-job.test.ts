@@ -1,6 +1,6 @@
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
 import { signIn, type Session } from '../helpers/http';
 import { adminClient, query, startWeb, startWorker, stop, waitFor } from './harness';
 

@@ -1,6 +1,6 @@
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
 import { signIn, type Session } from '../helpers/http';
 import { query, startWeb, startWorker, stop, waitFor } from './harness';
 
@@ -85,7 +85,8 @@ describe('kill -9 of the worker in the middle of a 500-file batch', () => {
     );
     // When the kill fell between storing a batch and completing its job, every file already
     // reads fitted and the upload never shows a retry; the job is retried all the same.
-    if (seenRetry) console.log(`[faults] the upload showed attempt ${seenRetry.attempt} of ${seenRetry.attempts}`);
+    const shown = seenRetry as { attempt: number; attempts: number } | null; // assigned inside the closure above
+    if (shown) console.log(`[faults] the upload showed attempt ${shown.attempt} of ${shown.attempts}`);
     await waitFor(
       async () => (await query(`select 1 from pgboss.job where id = any($1::uuid[]) and state = 'completed'`, [ids])).length === ids.length,
       90_000,

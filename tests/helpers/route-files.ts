@@ -1,7 +1,7 @@
 /** The route files under src/pages, with the methods each serves and a path that reaches it. */
 import fs from 'node:fs';
 import path from 'node:path';
-import { HTTP_METHODS, routeOfFile, type RouteFile } from '../../src/lib/route-files';
+import { HTTP_METHODS, routeOfFile, type RouteFile } from '~/lib/route-files';
 
 const PAGES = path.resolve(import.meta.dirname, '../../src/pages');
 

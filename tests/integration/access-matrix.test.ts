@@ -8,7 +8,7 @@
  * 4xx of the request's own (400/404/409/405…) and nothing is changed.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { ROLES, STATION_GRANTS, allows, permissionsOf, ruleFor, type Permission, type Role } from '../../src/lib/access';
+import { ROLES, STATION_GRANTS, allows, permissionsOf, ruleFor, type Permission, type Role } from '~/lib/access';
 import { BASE_URL, signIn, type Session } from '../helpers/http';
 import { routeFiles } from '../helpers/route-files';
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { caughtMail, waitForMail } from '../helpers/mail';
 import { createAcceptedParts, createTestType, ONE_BIN_PLAN, uniqueName } from './stock-fixtures';

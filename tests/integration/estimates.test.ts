@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { anonymous, signIn, type Session } from '../helpers/http';
-import { fieldPathWords } from '../../src/core/field-path-words';
+import { fieldPathWords } from '~/core/field-path-words';
 
 /**
  * Stage estimates through HTTP. Stored parts are inserted directly (a device type, lot, sweep

@@ -7,7 +7,7 @@ import http from 'node:http';
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { BASE_URL, DEMO_PASSWORD, anonymous, signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';

@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { insertRowsAsJson } from '../../src/db/insert-rows-as-json';
+import { closeDb, getDb, schema } from '~/db/client';
+import { insertRowsAsJson } from '~/db/insert-rows-as-json';
 
 /**
  * The bulk insert used on the intake path, against the real PostgreSQL: what goes in comes

@@ -1,19 +1,19 @@
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import type { Actor } from '../../src/lib/server/identity';
-import { fitUploadFiles } from '../../src/lib/server/jobs/fit-upload-file';
-import { ingestStoredFiles } from '../../src/lib/server/services/intake/ingest-stored-file';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
-import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
+import { closeDb, getDb, schema } from '~/db/client';
+import type { Actor } from '~/lib/server/identity';
+import { fitUploadFiles } from '~/lib/server/jobs/fit-upload-file';
+import { ingestStoredFiles } from '~/lib/server/services/intake/ingest-stored-file';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**
  * An unexpected error while fitting one file of a batch (here a fitter made to throw on
  * 7-step families) must not hold up the others: they are stored, the error is thrown after,
  * and the file stays queued for the job's retry.
  */
-vi.mock('../../src/core/fit/fit-curve-family', async (importOriginal) => {
-  const real = await importOriginal<typeof import('../../src/core/fit/fit-curve-family')>();
+vi.mock('~/core/fit/fit-curve-family', async (importOriginal) => {
+  const real = await importOriginal<typeof import('~/core/fit/fit-curve-family')>();
   return {
     ...real,
     fitCurveFamily: (family: Parameters<typeof real.fitCurveFamily>[0], options: Parameters<typeof real.fitCurveFamily>[1]) => {

@@ -1,10 +1,10 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import type { Actor } from '../../src/lib/server/identity';
-import { ingestStoredFiles } from '../../src/lib/server/services/intake/ingest-stored-file';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
-import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
+import { closeDb, getDb, schema } from '~/db/client';
+import type { Actor } from '~/lib/server/identity';
+import { ingestStoredFiles } from '~/lib/server/services/intake/ingest-stored-file';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**
  * The fitting job stores a batch of files a few transactions at a time. These drive the

@@ -5,8 +5,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { inArray } from 'drizzle-orm';
 import { BASE_URL, signIn, type Session } from '../helpers/http';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model';
+import { closeDb, getDb, schema } from '~/db/client';
+import { intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
 
 /**
  * Hostile and messy files through the running app: every file of the refusal corpus

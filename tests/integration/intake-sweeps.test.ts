@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
 import { BASE_URL, signIn, type Session } from '../helpers/http';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { idssA } from '../../src/core/jfet-model';
-import { MAX_SWEEP_FILE_BYTES } from '../../src/core/sweep-file';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
+import { closeDb, getDb, schema } from '~/db/client';
+import { idssA } from '~/core/jfet-model';
+import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
 
 /**
  * Sweep intake end to end: POST /api/sweeps (station token and inspector), the pg-boss worker

@@ -1,12 +1,12 @@
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import type { Actor } from '../../src/lib/server/identity';
-import { getBoss, JOB_EXPIRE_SECONDS, QUEUES, stopBoss } from '../../src/lib/server/jobs/boss';
-import { fitUploadFiles } from '../../src/lib/server/jobs/fit-upload-file';
-import { JobFailure } from '../../src/lib/server/jobs/job-failure';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
-import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receive';
+import { closeDb, getDb, schema } from '~/db/client';
+import type { Actor } from '~/lib/server/identity';
+import { getBoss, JOB_EXPIRE_SECONDS, QUEUES, stopBoss } from '~/lib/server/jobs/boss';
+import { fitUploadFiles } from '~/lib/server/jobs/fit-upload-file';
+import { JobFailure } from '~/lib/server/jobs/job-failure';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**
  * Issue 12, finding 1: a failure whose text PostgreSQL cannot store (a NUL byte, a lone
@@ -14,8 +14,8 @@ import { receiveSweepUpload } from '../../src/lib/server/services/uploads/receiv
  * 6-step families; PostgreSQL's refusal of U+0000 in text and jsonb is its documented
  * behaviour ("Character Types", "JSON Types").
  */
-vi.mock('../../src/core/fit/fit-curve-family', async (importOriginal) => {
-  const real = await importOriginal<typeof import('../../src/core/fit/fit-curve-family')>();
+vi.mock('~/core/fit/fit-curve-family', async (importOriginal) => {
+  const real = await importOriginal<typeof import('~/core/fit/fit-curve-family')>();
   return {
     ...real,
     fitCurveFamily: (family: Parameters<typeof real.fitCurveFamily>[0], options: Parameters<typeof real.fitCurveFamily>[1]) => {

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb } from '../../src/db/client';
+import { closeDb } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, uniqueName } from './stock-fixtures';
 

@@ -4,8 +4,8 @@
  * −0.6 to −4 V, LAMBDA 0.002–0.03 /V) from a seeded generator, so every run sees the same stock.
  */
 import { and, eq, inArray, sql } from 'drizzle-orm';
-import { getDb, schema } from '../../src/db/client';
-import type { JfetParams } from '../../src/core/jfet-model';
+import { getDb, schema } from '~/db/client';
+import type { JfetParams } from '~/core/jfet-model';
 
 export function mulberry32(seed: number) {
   return () => {

@@ -1,13 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
-import { vgsAtCurrentV, type JfetParams } from '../../src/core/jfet-model';
-import { modelCardName } from '../../src/core/fit/model-card';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import type { ProposalView } from '../../src/lib/server/services/match/proposal-view';
+import { vgsAtCurrentV, type JfetParams } from '~/core/jfet-model';
+import { modelCardName } from '~/core/fit/model-card';
+import { closeDb, getDb, schema } from '~/db/client';
+import type { ProposalView } from '~/lib/server/services/match/proposal-view';
 import { signIn, type Session } from '../helpers/http';
 import { fitsBySerial, insertMatchStock } from './match-fixture';
-import { partOperatingFigures } from '../../src/core/operating-point/part-operating-figures';
-import { loadPartBases } from '../../src/lib/server/services/parts/part-basis';
+import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';
+import { loadPartBases } from '~/lib/server/services/parts/part-basis';
 
 let designer: Session;
 let stores: Session;

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inArray } from 'drizzle-orm';
-import { sortForPicking } from '../../src/core/stock/pick-order';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { sortForPicking } from '~/core/stock/pick-order';
+import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { formatSignificant } from '../../src/core/units/format-quantity';
+import { closeDb, getDb, schema } from '~/db/client';
+import { formatSignificant } from '~/core/units/format-quantity';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';

@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { closeDb } from '../../src/db/client';
+import { closeDb } from '~/db/client';
 import { runConfirmLoad } from '../../scripts/load-confirm';
 import { BASE_URL } from '../helpers/http';
 import { insertMatchStock } from './match-fixture';

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { signIn, type Session } from '../helpers/http';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { seededRandom, simulateSweepCsv, type Defect } from '../../src/core/intake/simulated-sweep';
+import { closeDb, getDb, schema } from '~/db/client';
+import { seededRandom, simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
 
 /** The review queue: flagged fits wait for an inspector, who accepts, refits or sends to retest. */
 

@@ -5,8 +5,8 @@
  */
 import { randomBytes } from 'node:crypto';
 import { eq, inArray } from 'drizzle-orm';
-import { getDb, schema } from '../../src/db/client';
-import { assignBinsForParts } from '../../src/lib/server/services/bins/assign-bins';
+import { getDb, schema } from '~/db/client';
+import { assignBinsForParts } from '~/lib/server/services/bins/assign-bins';
 
 export function uniqueName(prefix: string): string {
   return `${prefix}-${randomBytes(3).toString('hex').toUpperCase()}`;

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq, sql } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
+import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, partsBySerial, uniqueName } from './stock-fixtures';
 

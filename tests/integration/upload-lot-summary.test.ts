@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { closeDb, getDb, schema } from '../../src/db/client';
-import { seededRandom, simulateSweepCsv } from '../../src/core/intake/simulated-sweep';
+import { closeDb, getDb, schema } from '~/db/client';
+import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 

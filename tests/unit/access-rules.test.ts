@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROLES, ROUTE_RULES, rolesWith, ruleFor } from '../../src/lib/access';
+import { ROLES, ROUTE_RULES, rolesWith, ruleFor } from '~/lib/access';
 import { routeFiles } from '../helpers/route-files';
 
 /** Rules that serve no route file, each with its reason. */

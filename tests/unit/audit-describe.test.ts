@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { auditReferencedIds, describeAuditEntry } from '../../src/core/audit/describe-audit-entry';
+import { auditReferencedIds, describeAuditEntry } from '~/core/audit/describe-audit-entry';
 
 // Rows shaped as the services write them (change-status.ts, assign-bins.ts, refit.ts); the
 // wording is our own.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatQuantity, formatQuantityRange } from '../../src/core/units/format-quantity';
+import { formatQuantity, formatQuantityRange } from '~/core/units/format-quantity';
 
 // Prefix symbols and the space between number and unit: SI Brochure, 9th edition (BIPM), from memory.
 // Minus sign U+2212 rather than the hyphen: ISO 80000-1 typesetting, from memory.

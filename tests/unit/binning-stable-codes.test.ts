@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assignBin, binCatalogue, withStableBinCodes, type BinPlan } from '../../src/core/binning';
+import { assignBin, binCatalogue, withStableBinCodes, type BinPlan } from '~/core/binning';
 
 // The rule (our own): a bin code printed on a bag means one range in every plan version.
 const v1: BinPlan = {

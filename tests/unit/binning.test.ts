@@ -8,7 +8,7 @@ import {
   parseBinPlan,
   planMoves,
   type BinPlan,
-} from '../../src/core/binning';
+} from '~/core/binning';
 
 /** IDSS 6.0–8.0 mA in 0.5 mA steps × VP −2.4 to −1.8 V in three explicit ranges. */
 const plan: BinPlan = {

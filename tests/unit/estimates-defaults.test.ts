@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { checkInputsAgainstPart, estimateDefaultsForPart } from '../../src/core/estimates/defaults-from-part';
-import { E24, E96, nearestPreferredValue } from '../../src/core/estimates/preferred-values';
-import { solveSelfBias } from '../../src/core/estimates/solve-self-bias';
-import { paramsFromIdssVp } from '../../src/core/estimates/params-from-idss-vp';
+import { checkInputsAgainstPart, estimateDefaultsForPart } from '~/core/estimates/defaults-from-part';
+import { E24, E96, nearestPreferredValue } from '~/core/estimates/preferred-values';
+import { solveSelfBias } from '~/core/estimates/solve-self-bias';
+import { paramsFromIdssVp } from '~/core/estimates/params-from-idss-vp';
 
 describe('IEC 60063 E series', () => {
   it('E96 is 10^(i/96) rounded to three figures, every one of its 96 values (IEC 60063; the formula, derived)', () => {

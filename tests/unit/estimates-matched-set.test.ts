@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { EstimateInputError, matchedSetImplications } from '../../src/core/estimates';
+import { EstimateInputError, matchedSetImplications } from '~/core/estimates';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

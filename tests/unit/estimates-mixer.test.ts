@@ -5,7 +5,7 @@ import {
   type MixerEstimate,
   type MixerEstimateInput,
   type MixerProductName,
-} from '../../src/core/estimates';
+} from '~/core/estimates';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 const product = (m: MixerEstimate, name: MixerProductName) => m.products.find((p) => p.name === name)!;

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { gfsAtZeroVgsS, idssA, type JfetParams } from '../../src/core/jfet-model';
+import { gfsAtZeroVgsS, idssA, type JfetParams } from '~/core/jfet-model';
 import {
   commonSourceGain,
   EstimateInputError,
   paramsFromIdssVp,
   solveSelfBias,
   sourceResistorForCurrent,
-} from '../../src/core/estimates';
+} from '~/core/estimates';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

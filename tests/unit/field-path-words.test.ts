@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { describeIssue, fieldPathWords } from '../../src/core/field-path-words';
+import { describeIssue, fieldPathWords } from '~/core/field-path-words';
 
 // Our own rule (issue 13, item 12): a validation message names the field in words a person
 // reads, never as a machine path like `axes.0.edges.width`.

@@ -5,9 +5,9 @@
  * and level-1 families with small RS/RD added by the engine's own series solution.
  */
 import { describe, expect, it } from 'vitest';
-import type { CurveFamily, FitResult } from '../../src/core/fit/definitions.ts';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
-import { drainCurrentA } from '../../src/core/fit/series-resistance.ts';
+import type { CurveFamily, FitResult } from '~/core/fit/definitions.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
+import { drainCurrentA } from '~/core/fit/series-resistance.ts';
 import { maxCurrentA, readCommittedFamily, readNetlistTruth, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const SEEDS = [3001, 3002, 3003, 3004, 3005, 3006, 3007, 3008];

@@ -3,9 +3,9 @@
  * Debian ngspice) cut down or disturbed to provoke each flag.
  */
 import { describe, expect, it } from 'vitest';
-import type { CurveFamily } from '../../src/core/fit/definitions.ts';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
-import { CurveFamilyShapeError } from '../../src/core/fit/prepared-curves.ts';
+import type { CurveFamily } from '~/core/fit/definitions.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
+import { CurveFamilyShapeError } from '~/core/fit/prepared-curves.ts';
 import { maxCurrentA, readCommittedFamily, readNetlistTruth, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const medium = readCommittedFamily('njf-medium');

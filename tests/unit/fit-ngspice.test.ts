@@ -8,9 +8,9 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { CurveFamily, FittedResult } from '../../src/core/fit/definitions.ts';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
-import { formatModelCard } from '../../src/core/fit/model-card.ts';
+import type { CurveFamily, FittedResult } from '~/core/fit/definitions.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
+import { formatModelCard } from '~/core/fit/model-card.ts';
 import {
   NGSPICE_BIN,
   NGSPICE_DIR,

@@ -6,11 +6,11 @@
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import type { CurveFamily } from '../../src/core/fit/definitions.ts';
-import { fTestTwoExtraParameters } from '../../src/core/fit/f-test.ts';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
-import { prepareCurves } from '../../src/core/fit/prepared-curves.ts';
-import { estimateStartingValues } from '../../src/core/fit/starting-values.ts';
+import type { CurveFamily } from '~/core/fit/definitions.ts';
+import { fTestTwoExtraParameters } from '~/core/fit/f-test.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
+import { prepareCurves } from '~/core/fit/prepared-curves.ts';
+import { estimateStartingValues } from '~/core/fit/starting-values.ts';
 import { maxCurrentA, readCommittedFamily, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const SCRIPT = fileURLToPath(new URL('../fixtures/scipy/fit_level1.py', import.meta.url));

@@ -7,7 +7,7 @@
  * ngspice, tests/fixtures/ngspice), clean and with 0.3 % noise, level-1 and RS/RD.
  */
 import { describe, expect, it } from 'vitest';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
 import { fixtureNames, maxCurrentA, readCommittedFamily, withNoise } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const cases = fixtureNames().flatMap((name) => [

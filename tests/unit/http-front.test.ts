@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { clientAddressOf, compileTrust, isCrossSiteWrite, peerIsTrusted } from '../../src/http-front/client-address.mjs';
+import { clientAddressOf, compileTrust, isCrossSiteWrite, peerIsTrusted } from '~/http-front/client-address.mjs';
 
 const req = (remoteAddress: string, headers: Record<string, string> = {}, method = 'GET') => ({ socket: { remoteAddress }, headers, method });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { lotSummaryText, summarizeUploadByLot, type SummaryFileInput } from '../../src/core/intake/summarize-upload-by-lot';
+import { lotSummaryText, summarizeUploadByLot, type SummaryFileInput } from '~/core/intake/summarize-upload-by-lot';
 
 // Derived (issue 13, inspector): every file of an upload is counted once, under its lot,
 // as fitted, flagged or refused; refusals are grouped by reason with one example each.

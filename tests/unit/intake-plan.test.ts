@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { IngestRejection } from '../../src/core/intake/ingest-rejection';
-import { lotCodesOf, planParts, readSweepForType, type DeviceTypeInfo } from '../../src/core/intake/plan-sweep-file';
-import { storageGroups } from '../../src/core/intake/storage-groups';
-import { intrinsicDrainCurrentA } from '../../src/core/jfet-model';
-import { SweepFileError } from '../../src/core/sweep-file';
+import { IngestRejection } from '~/core/intake/ingest-rejection';
+import { lotCodesOf, planParts, readSweepForType, type DeviceTypeInfo } from '~/core/intake/plan-sweep-file';
+import { storageGroups } from '~/core/intake/storage-groups';
+import { intrinsicDrainCurrentA } from '~/core/jfet-model';
+import { SweepFileError } from '~/core/sweep-file';
 
 /**
  * The intake's decisions without a database (src/core/intake): device type, channel, lot,

@@ -4,11 +4,11 @@
  * finite differences (derived) and the model card text.
  */
 import { describe, expect, it } from 'vitest';
-import { gfsAtZeroVgsS, gmAtCurrentS, idssA, intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model.ts';
-import { deriveFigures } from '../../src/core/fit/derived-figures.ts';
-import { PARTIALS_LENGTH, intrinsicCurrentWithPartials } from '../../src/core/fit/level1-partials.ts';
-import { formatModelCard, modelCardName } from '../../src/core/fit/model-card.ts';
-import { SERIES_PARTIALS_LENGTH, drainCurrentA, seriesCurrentWithPartials } from '../../src/core/fit/series-resistance.ts';
+import { gfsAtZeroVgsS, gmAtCurrentS, idssA, intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model.ts';
+import { deriveFigures } from '~/core/fit/derived-figures.ts';
+import { PARTIALS_LENGTH, intrinsicCurrentWithPartials } from '~/core/fit/level1-partials.ts';
+import { formatModelCard, modelCardName } from '~/core/fit/model-card.ts';
+import { SERIES_PARTIALS_LENGTH, drainCurrentA, seriesCurrentWithPartials } from '~/core/fit/series-resistance.ts';
 
 /** A square-law part from datasheet IDSS and VP: BETA = IDSS/VP², λ = 0 (derived). */
 const fromDatasheet = (idss: number, vp: number, rsOhm = 0): JfetParams => ({

@@ -1,20 +1,20 @@
 import { describe, expect, it } from 'vitest';
-import { chooseMatchedSets } from '../../src/core/match/choose-matched-sets';
-import { MatchRequestError } from '../../src/core/match/match-request-error';
+import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
+import { MatchRequestError } from '~/core/match/match-request-error';
 import type {
   MatchCandidate,
   MatchResult,
   MatchShape,
   MatchTolerances,
   OperatingPoint,
-} from '../../src/core/match/match-types';
+} from '~/core/match/match-types';
 import {
   gfsAtZeroVgsS,
   gmAtCurrentS,
   idssA,
   vgsAtCurrentV,
   type JfetParams,
-} from '../../src/core/jfet-model';
+} from '~/core/jfet-model';
 
 /**
  * The reference here is exhaustive enumeration (derived): every valid set is listed from the

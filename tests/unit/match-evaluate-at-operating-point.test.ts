@@ -6,9 +6,9 @@ import { describe, expect, it } from 'vitest';
 import {
   evaluateAtOperatingPoint,
   selfBiasDrainCurrentA,
-} from '../../src/core/match/evaluate-at-operating-point';
-import { chooseMatchedSets } from '../../src/core/match/choose-matched-sets';
-import type { JfetParams } from '../../src/core/jfet-model';
+} from '~/core/match/evaluate-at-operating-point';
+import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
+import type { JfetParams } from '~/core/jfet-model';
 
 const part = (idssA: number, vtoV: number, extra: Partial<JfetParams> = {}): JfetParams => ({
   vtoV,

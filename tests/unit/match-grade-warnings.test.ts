@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { COMMON_PRACTICE_GRADES, meetsAskedTolerances, proposalVerdict, setGradeWarnings, toleranceWarnings } from '../../src/core/match/grade-warnings';
+import { COMMON_PRACTICE_GRADES, meetsAskedTolerances, proposalVerdict, setGradeWarnings, toleranceWarnings } from '~/core/match/grade-warnings';
 
 // Grades of matched duals: |ΔVGS| 10 mV, IDSS ratio ≥ 0.95, gfs ratio ≥ 0.97 — common practice.
 const practice = { maxDvgsV: 0.01, maxGmMismatch: 0.03, maxIdssMismatch: 0.05 };

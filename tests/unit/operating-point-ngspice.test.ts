@@ -7,11 +7,11 @@
  * level-1 formulas. Also square-law (level-1, B = 1) parts, where the fitted model is exact.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { CurveFamily } from '../../src/core/fit/definitions';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family';
-import { toNEquivalent, vgsAtCurrentV } from '../../src/core/jfet-model';
-import { partOperatingFigures, type PartBasis } from '../../src/core/operating-point/part-operating-figures';
-import { operatingTableFromBytes, operatingTableToBytes } from '../../src/core/operating-point/operating-table';
+import type { CurveFamily } from '~/core/fit/definitions';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import { toNEquivalent, vgsAtCurrentV } from '~/core/jfet-model';
+import { partOperatingFigures, type PartBasis } from '~/core/operating-point/part-operating-figures';
+import { operatingTableFromBytes, operatingTableToBytes } from '~/core/operating-point/operating-table';
 import {
   nonSquareParts,
   simulateParts,

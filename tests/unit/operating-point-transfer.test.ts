@@ -5,9 +5,9 @@
  * the published 2.4–2.8), so the truth is its closed form (derived).
  */
 import { describe, expect, it } from 'vitest';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family';
-import type { CurveFamily } from '../../src/core/fit/definitions';
-import { partOperatingFigures } from '../../src/core/operating-point/part-operating-figures';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import type { CurveFamily } from '~/core/fit/definitions';
+import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';
 
 const K = 3e-3;
 const V0 = -2.2;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { csvCell, writeCsv } from '../../src/core/csv/write-csv';
-import { safeNextPath } from '../../src/lib/safe-next-path';
+import { csvCell, writeCsv } from '~/core/csv/write-csv';
+import { safeNextPath } from '~/lib/safe-next-path';
 
 // OWASP "CSV Injection" guidance: cells beginning with = + - @ TAB CR are prefixed with a
 // single quote and the cell is quoted, with embedded double quotes doubled (RFC 4180).

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { normalizeSerial, serialProblem, SERIAL_MAX_LENGTH } from '../../src/core/serial/normalize-serial';
-import { collectScanBatch } from '../../src/core/stock/scan-batch';
+import { normalizeSerial, serialProblem, SERIAL_MAX_LENGTH } from '~/core/serial/normalize-serial';
+import { collectScanBatch } from '~/core/stock/scan-batch';
 
 /**
  * The one serial rule (issue: serials behave the same on every screen). Sources: RFC 3986

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { binShareGrid, binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown } from '../../src/core/statistics';
+import { binShareGrid, binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown } from '~/core/statistics';
 
 // Twelve IDSS readings in mA (invented). Reference figures from NumPy 1.24.2 (/usr/bin/python3):
 // mean, std(ddof=1), percentile (default linear method) and histogram.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { compareStockCount, type CountedPart } from '../../src/core/stock/compare-stock-count';
+import { compareStockCount, type CountedPart } from '~/core/stock/compare-stock-count';
 
 // Derived from the meaning of a stock count (issue 13, "Stores: stock-count mode"): every
 // serial lands in exactly one class, and a part recorded here but not scanned is missing.

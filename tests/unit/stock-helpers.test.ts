@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { lowStockStep } from '../../src/core/stock/low-stock';
-import { collectScanBatch, cleanScannedSerial } from '../../src/core/stock/scan-batch';
-import { countsFromStatusRows } from '../../src/core/stock/stock-counts';
-import { sortForPicking } from '../../src/core/stock/pick-order';
-import { gridCells, mapExtent, type MapBin } from '../../src/components/bins/bin-grid';
-import { axisToForm, formToPlan } from '../../src/components/bin-plans/plan-form';
+import { lowStockStep } from '~/core/stock/low-stock';
+import { collectScanBatch, cleanScannedSerial } from '~/core/stock/scan-batch';
+import { countsFromStatusRows } from '~/core/stock/stock-counts';
+import { sortForPicking } from '~/core/stock/pick-order';
+import { gridCells, mapExtent, type MapBin } from '~/components/bins/bin-grid';
+import { axisToForm, formToPlan } from '~/components/bin-plans/plan-form';
 
 describe('lowStockStep (the alert rule of the issue: once per drop below, re-arm at or above)', () => {
   it.each([

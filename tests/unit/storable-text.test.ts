@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { storableErrorMessage, storableText } from '../../src/core/text/storable-text';
+import { storableErrorMessage, storableText } from '~/core/text/storable-text';
 
 // PostgreSQL's text and jsonb types refuse U+0000 ("invalid byte sequence for encoding UTF8:
 // 0x00", "unsupported Unicode escape sequence"), and a lone UTF-16 surrogate has no UTF-8

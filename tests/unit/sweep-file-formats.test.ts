@@ -1,15 +1,15 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model';
+import { intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
 import {
   MAX_SWEEP_POINTS_PER_FILE,
   parseSweepFile,
   SweepFileError,
   type ParsedSweepFile,
   type ParseSweepFileInput,
-} from '../../src/core/sweep-file';
-import { readNumberCell } from '../../src/core/sweep-file/read-number-cell';
+} from '~/core/sweep-file';
+import { readNumberCell } from '~/core/sweep-file/read-number-cell';
 
 const sweeps = fileURLToPath(new URL('../fixtures/sweeps/', import.meta.url));
 

@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { decodeSweepBytes, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError } from '../../src/core/sweep-file';
+import { decodeSweepBytes, MAX_MESSAGE_LENGTH, parseSweepFile, SweepFileError } from '~/core/sweep-file';
 
 /**
  * The refusal corpus: every file in tests/fixtures/malformed/ against the table in

@@ -2,7 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { intrinsicDrainCurrentA } from '../../src/core/jfet-model';
+import { intrinsicDrainCurrentA } from '~/core/jfet-model';
 import {
   decodeSweepBytes,
   MIN_CURVES_PER_PART,
@@ -11,7 +11,7 @@ import {
   parseSweepFile,
   SweepFileError,
   type ParsedSweepFile,
-} from '../../src/core/sweep-file';
+} from '~/core/sweep-file';
 
 /** Parses, and returns the result or the SweepFileError; anything else thrown escapes. */
 function parseOrRefuse(text: string, fileName = 'JX-1.csv'): ParsedSweepFile | SweepFileError {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family';
-import { intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model';
-import { parseSweepFile, SweepFileError, type ParsedSweepPart } from '../../src/core/sweep-file';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import { intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
+import { parseSweepFile, SweepFileError, type ParsedSweepPart } from '~/core/sweep-file';
 
 /**
  * Files as real curve tracers write them (the issue's three cases), each of which must parse

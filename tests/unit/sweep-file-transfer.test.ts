@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { fitCurveFamily } from '../../src/core/fit/fit-curve-family';
-import { idssA, intrinsicDrainCurrentA, type JfetParams } from '../../src/core/jfet-model';
-import { parseSweepFile, type ParsedSweepPart } from '../../src/core/sweep-file';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import { idssA, intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
+import { parseSweepFile, type ParsedSweepPart } from '~/core/sweep-file';
 
 /**
  * Transfer sweeps (ID against VGS at fixed VDS), long and wide, N and P. Currents from the

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { tabAfterKey } from '../../src/components/ui/tab-keys';
+import { tabAfterKey } from '~/components/ui/tab-keys';
 
 // The keyboard model of a tab list from the WAI-ARIA Authoring Practices ("Tabs" pattern):
 // Left/Right move to the previous/next tab and wrap at the ends; Home/End go to the first/last.

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { columnFormat, formatMeasured, formatOpenRange, formatPercent, formatSignificant, uncertaintyDigits } from '../../src/core/units/format-quantity';
-import { formatDate, formatDateTime } from '../../src/core/units/format-date';
+import { columnFormat, formatMeasured, formatOpenRange, formatPercent, formatSignificant, uncertaintyDigits } from '~/core/units/format-quantity';
+import { formatDate, formatDateTime } from '~/core/units/format-date';
 
 const M = '\u2212';
 

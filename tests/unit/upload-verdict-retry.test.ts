@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { retryWords, uppyVerdict } from '../../src/core/intake/upload-verdict';
+import { retryWords, uppyVerdict } from '~/core/intake/upload-verdict';
 
 // Derived: the words are ours; the numbers come from pg-boss's retry count (attempt n of
 // retry limit + 1).

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { unknownLotOf, uppyVerdict } from '../../src/core/intake/upload-verdict';
+import { unknownLotOf, uppyVerdict } from '~/core/intake/upload-verdict';
 
 // Issue 13, item 2: the upload widget tells the truth. Only a fitted file may show as done
 // (Uppy's green tick); a rejected one is an error with the server's reason.

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { formatDateTime } from '../../core/units/format-date';
+import { formatDateTime } from '~/core/units/format-date';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { ROLES, type Role } from '../../lib/access';
+import { ROLES, type Role } from '~/lib/access';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 

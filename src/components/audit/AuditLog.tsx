@@ -1,6 +1,6 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import type { AuditLogPage } from '../../lib/server/services/audit/list';
-import { auditActionWords } from '../../core/audit/describe-audit-entry';
+import type { AuditLogPage } from '~/lib/server/services/audit/list';
+import { auditActionWords } from '~/core/audit/describe-audit-entry';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import AuditTrail from './AuditTrail';

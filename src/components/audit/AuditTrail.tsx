@@ -1,5 +1,5 @@
-import type { AuditEntryJson } from '../../lib/server/services/audit/describe-rows';
-import { formatDateTime } from '../../core/units/format-date';
+import type { AuditEntryJson } from '~/lib/server/services/audit/describe-rows';
+import { formatDateTime } from '~/core/units/format-date';
 
 /**
  * Audit rows in words: when, who, what, and each change "from → to". The stored JSON stays one

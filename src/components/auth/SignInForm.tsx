@@ -1,5 +1,5 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { safeNextPath } from '../../lib/safe-next-path';
+import { safeNextPath } from '~/lib/safe-next-path';
 
 /** Signs in through better-auth's e-mail endpoint, then goes to `next`. */
 export default function SignInForm({ next }: { next: string }) {

@@ -1,8 +1,8 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BinPlan, BinQuantity } from '../../core/binning';
+import type { BinPlan, BinQuantity } from '~/core/binning';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-import { formatDate } from '../../core/units/format-date';
+import { formatDate } from '~/core/units/format-date';
 import { axisToForm, defaultAxes, formToPlan, QUANTITY_NAMES, type AxisForm } from './plan-form';
 import PlanGridPreview, { type PreviewPoint } from './PlanGridPreview';
 

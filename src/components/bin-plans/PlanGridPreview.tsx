@@ -1,5 +1,5 @@
-import { binEdges, type BinPlan } from '../../core/binning';
-import { formatNumber } from '../../core/units/format-quantity';
+import { binEdges, type BinPlan } from '~/core/binning';
+import { formatNumber } from '~/core/units/format-quantity';
 import { useWidth } from '../charts/use-width';
 
 export interface PreviewPoint {

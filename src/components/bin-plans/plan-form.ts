@@ -1,4 +1,4 @@
-import type { BinAxis, BinPlan, BinQuantity } from '../../core/binning';
+import type { BinAxis, BinPlan, BinQuantity } from '~/core/binning';
 
 /** An axis as the admin types it: IDSS in mA, voltages in V, reference current in mA. */
 export interface AxisForm {

@@ -1,4 +1,4 @@
-import { formatQuantity } from '../../core/units/format-quantity';
+import { formatQuantity } from '~/core/units/format-quantity';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import type { MapBin } from './bin-grid';

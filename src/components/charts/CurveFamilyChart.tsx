@@ -1,6 +1,6 @@
 import { Axis, GlyphSeries, Grid, LineSeries, Tooltip, XYChart, buildChartTheme } from '@visx/xychart';
 import { useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
-import type { JfetParams } from '../../core/jfet-model';
+import type { JfetParams } from '~/core/jfet-model';
 import { curveColour, measuredPoints, modelLines, vgsLabel, type ApiCurve, type MeasuredPoint } from './chart-data';
 import { useWidth } from './use-width';
 

@@ -1,5 +1,5 @@
 import { Axis, GlyphSeries, Grid, LineSeries, XYChart, buildChartTheme } from '@visx/xychart';
-import type { JfetParams } from '../../core/jfet-model';
+import type { JfetParams } from '~/core/jfet-model';
 import { curveColour, residualPoints, type ApiCurve } from './chart-data';
 import { useWidth } from './use-width';
 

@@ -1,5 +1,5 @@
-import { drainCurrentA } from '../../core/fit/series-resistance';
-import type { JfetParams } from '../../core/jfet-model';
+import { drainCurrentA } from '~/core/fit/series-resistance';
+import type { JfetParams } from '~/core/jfet-model';
 
 /** A curve as the API sends it (N-equivalent SI). */
 export interface ApiCurve {

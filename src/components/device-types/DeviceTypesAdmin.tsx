@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { formatOpenRange } from '../../core/units/format-quantity';
+import { formatOpenRange } from '~/core/units/format-quantity';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 

@@ -1,10 +1,10 @@
 import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
-import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '../../core/estimates/defaults-from-part';
-import { idssInDatasheetSign, vdsInDatasheetSign } from '../../core/units/datasheet-sign';
-import { columnFormat, formatMeasuredNumber, formatPlain } from '../../core/units/format-quantity';
-import type { estimateMixerProducts } from '../../lib/server/services/estimates/estimate-mixer';
-import type { estimateSelfBias } from '../../lib/server/services/estimates/self-bias';
-import type { estimateMatchedSet } from '../../lib/server/services/estimates/matched-set';
+import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '~/core/estimates/defaults-from-part';
+import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
+import { columnFormat, formatMeasuredNumber, formatPlain } from '~/core/units/format-quantity';
+import type { estimateMixerProducts } from '~/lib/server/services/estimates/estimate-mixer';
+import type { estimateSelfBias } from '~/lib/server/services/estimates/self-bias';
+import type { estimateMatchedSet } from '~/lib/server/services/estimates/matched-set';
 import { sig as formatQuantity } from './sig';
 import { ApiError, apiFetch } from '../ui/api-client';
 import { Empty } from '../ui/states';

@@ -1,4 +1,4 @@
-import { formatPercent, formatPlain } from '../../core/units/format-quantity';
+import { formatPercent, formatPlain } from '~/core/units/format-quantity';
 import { sig as formatQuantity } from './sig';
 import type { SetResult } from './EstimatesWorkbench';
 

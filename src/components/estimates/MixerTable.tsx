@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { columnFormat, formatPlain } from '../../core/units/format-quantity';
+import { columnFormat, formatPlain } from '~/core/units/format-quantity';
 
 export interface MixerProductRow {
   name: string;

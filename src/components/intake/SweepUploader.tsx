@@ -4,13 +4,13 @@ import XHRUpload from '@uppy/xhr-upload';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
 import { useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
-import { MAX_SWEEP_FILE_BYTES } from '../../core/sweep-file/limits';
+import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file/limits';
 import CurveThumbnail from '../charts/CurveThumbnail';
 import type { PartJson } from '../parts/part-types';
 import { q } from '../parts/figures';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice } from '../ui/states';
-import { retryWords, uppyVerdict, unknownLotOf } from '../../core/intake/upload-verdict';
+import { retryWords, uppyVerdict, unknownLotOf } from '~/core/intake/upload-verdict';
 
 interface FileStatus {
   id: number;

@@ -1,11 +1,11 @@
 import { useState, type FormEvent } from 'react';
-import type { MatchableType } from '../../lib/server/services/match/list-types';
-import type { ProposalView, ProposedSet } from '../../lib/server/services/match/proposal-view';
+import type { MatchableType } from '~/lib/server/services/match/list-types';
+import type { ProposalView, ProposedSet } from '~/lib/server/services/match/proposal-view';
 import { ApiError, apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-import { COMMON_PRACTICE_GRADES, proposalVerdict, setGradeWarnings, toleranceWarnings, type AskedTolerances } from '../../core/match/grade-warnings';
-import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
-import { columnFormat } from '../../core/units/format-quantity';
+import { COMMON_PRACTICE_GRADES, proposalVerdict, setGradeWarnings, toleranceWarnings, type AskedTolerances } from '~/core/match/grade-warnings';
+import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
+import { columnFormat } from '~/core/units/format-quantity';
 import { SHAPE_WORDS, millivolts, percent, roleLabel, volts } from './figures';
 
 type Shape = ProposalView['shape'];

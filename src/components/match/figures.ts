@@ -1,5 +1,5 @@
-import { formatDateTime } from '../../core/units/format-date';
-import { formatQuantity } from '../../core/units/format-quantity';
+import { formatDateTime } from '~/core/units/format-date';
+import { formatQuantity } from '~/core/units/format-quantity';
 
 /** Display helpers shared by the match, reservation and pick-list islands. */
 export const volts = (v: number | null | undefined, digits = 3) => (v === null || v === undefined ? '—' : formatQuantity(v, 'V', digits));

@@ -1,7 +1,7 @@
 import { Axis, GlyphSeries, Grid, LineSeries, XYChart } from '@visx/xychart';
 import { chartTheme } from '../charts/CurveFamilyChart';
 import { useState, type FormEvent } from 'react';
-import { formatMeasured, formatSignificant } from '../../core/units/format-quantity';
+import { formatMeasured, formatSignificant } from '~/core/units/format-quantity';
 import { ApiError, apiFetch } from '../ui/api-client';
 import { useWidth } from '../charts/use-width';
 import type { OperatingPointJson, PartOperatingJson } from './part-types';

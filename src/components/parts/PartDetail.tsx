@@ -7,8 +7,8 @@ import OperatingFiguresPanel from './OperatingFiguresPanel';
 import ReviewActions from '../review/ReviewActions';
 import { useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';
-import { idssInDatasheetSign, vdsInDatasheetSign } from '../../core/units/datasheet-sign';
-import { formatMeasuredNumber, formatSignificant } from '../../core/units/format-quantity';
+import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
+import { formatMeasuredNumber, formatSignificant } from '~/core/units/format-quantity';
 import { measured, percent, plain, q, when } from './figures';
 import { flagWord, STATUS_WORDS, statusClass, type PartJson } from './part-types';
 

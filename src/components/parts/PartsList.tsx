@@ -1,6 +1,6 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
-import { columnFormat } from '../../core/units/format-quantity';
+import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
+import { columnFormat } from '~/core/units/format-quantity';
 import { percent } from './figures';
 import { flagWord, STATUS_WORDS, statusClass } from './part-types';
 import { useApi } from '../ui/api-client';

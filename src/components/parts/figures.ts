@@ -1,5 +1,5 @@
-import { formatDateTime } from '../../core/units/format-date';
-import { formatMeasured, formatQuantity, MINUS_SIGN, type QuantityUnit } from '../../core/units/format-quantity';
+import { formatDateTime } from '~/core/units/format-date';
+import { formatMeasured, formatQuantity, MINUS_SIGN, type QuantityUnit } from '~/core/units/format-quantity';
 
 export function q(value: number | null | undefined, unit: QuantityUnit, digits = 2): string {
   return value === null || value === undefined ? '—' : formatQuantity(value, unit, digits);

@@ -1,7 +1,7 @@
-import { PART_STATUSES, describePartStatus } from '../../core/stock/part-transitions';
-import type { AuditEntryJson } from '../../lib/server/services/audit/describe-rows';
-import type { getPartBySerial } from '../../lib/server/services/parts/get';
-import type { getPartOperatingPoint } from '../../lib/server/services/parts/operating-point';
+import { PART_STATUSES, describePartStatus } from '~/core/stock/part-transitions';
+import type { AuditEntryJson } from '~/lib/server/services/audit/describe-rows';
+import type { getPartBySerial } from '~/lib/server/services/parts/get';
+import type { getPartOperatingPoint } from '~/lib/server/services/parts/operating-point';
 
 /** The part page's operating-point section (IDSS at the test VDS, model against measurements). */
 export type PartOperatingJson = NonNullable<Awaited<ReturnType<typeof getPartBySerial>>['operating']>;

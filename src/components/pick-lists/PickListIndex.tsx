@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import TabStrip from '../ui/TabStrip';
-import type { PickListSummary } from '../../lib/server/services/pick-lists/list';
+import type { PickListSummary } from '~/lib/server/services/pick-lists/list';
 import { STATUS_TAG, dateTime, relativeTo } from '../match/figures';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';

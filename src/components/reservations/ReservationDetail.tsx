@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import type { ReservationView } from '../../lib/server/services/reservations/reservation-view';
-import { idssInDatasheetSign } from '../../core/units/datasheet-sign';
-import { columnFormat } from '../../core/units/format-quantity';
+import type { ReservationView } from '~/lib/server/services/reservations/reservation-view';
+import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
+import { columnFormat } from '~/core/units/format-quantity';
 import { SHAPE_WORDS, STATUS_TAG, amps, dateTime, millivolts, percent, relativeTo, roleLabel, volts } from '../match/figures';
 import { apiFetch, useApi } from '../ui/api-client';
 import { ErrorNotice, Loading } from '../ui/states';

@@ -1,4 +1,4 @@
-import type { ReservationSummary } from '../../lib/server/services/reservations/list';
+import type { ReservationSummary } from '~/lib/server/services/reservations/list';
 import { SHAPE_WORDS, STATUS_TAG, dateTime, relativeTo } from '../match/figures';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';

@@ -1,11 +1,11 @@
 import { useMemo, useState, type CSSProperties, type FormEvent } from 'react';
-import type { StatisticsReport } from '../../lib/server/services/statistics/get';
-import type { StatisticsOptions } from '../../lib/server/services/statistics/list-options';
-import type { TypeStatistics } from '../../lib/server/services/statistics/compute-report';
-import { formatDate } from '../../core/units/format-date';
-import { binShareGrid, type BinShareGrid } from '../../core/statistics/bin-share-grid';
-import { vdsInDatasheetSign } from '../../core/units/datasheet-sign';
-import { formatMeasured, formatNumber, formatOpenRange, formatPercent, formatQuantityRange, formatSignificant, type QuantityUnit } from '../../core/units/format-quantity';
+import type { StatisticsReport } from '~/lib/server/services/statistics/get';
+import type { StatisticsOptions } from '~/lib/server/services/statistics/list-options';
+import type { TypeStatistics } from '~/lib/server/services/statistics/compute-report';
+import { formatDate } from '~/core/units/format-date';
+import { binShareGrid, type BinShareGrid } from '~/core/statistics/bin-share-grid';
+import { vdsInDatasheetSign } from '~/core/units/datasheet-sign';
+import { formatMeasured, formatNumber, formatOpenRange, formatPercent, formatQuantityRange, formatSignificant, type QuantityUnit } from '~/core/units/format-quantity';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { ChartCard } from './chart-kit';

@@ -1,5 +1,5 @@
 import { Axis, BarSeries, GlyphSeries, Grid, LineSeries, Tooltip, XYChart } from '@visx/xychart';
-import { formatDate } from '../../core/units/format-date';
+import { formatDate } from '~/core/units/format-date';
 import { CHART_COLORS, chartTheme } from './chart-kit';
 
 /** Display scale of each figure: SI value × factor, shown in `unit`. */

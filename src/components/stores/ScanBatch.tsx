@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
-import { collectScanBatch } from '../../core/stock/scan-batch';
-import { formatQuantity } from '../../core/units/format-quantity';
+import { collectScanBatch } from '~/core/stock/scan-batch';
+import { formatQuantity } from '~/core/units/format-quantity';
 import { ApiError, apiFetch } from '../ui/api-client';
 
 export type StockAction = 'receive' | 'move' | 'return' | 'scrap';

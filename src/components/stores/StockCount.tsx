@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
-import type { StockCountJson } from '../../lib/server/services/stock/count-location';
-import { collectScanBatch } from '../../core/stock/scan-batch';
+import type { StockCountJson } from '~/lib/server/services/stock/count-location';
+import { collectScanBatch } from '~/core/stock/scan-batch';
 import { apiFetch } from '../ui/api-client';
 
 type Part = StockCountJson['missing'][number];

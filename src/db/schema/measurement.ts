@@ -14,7 +14,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
-import { PART_STATUSES } from '../../core/stock/part-transitions';
+import { PART_STATUSES } from '~/core/stock/part-transitions';
 import { stationToken, user } from './auth';
 import { deviceType, location, lot } from './catalogue';
 

@@ -1,6 +1,6 @@
-import type { DbOrTx } from '../../db/client';
-import { schema } from '../../db/client';
-import { insertRowsAsJson } from '../../db/insert-rows-as-json';
+import type { DbOrTx } from '~/db/client';
+import { schema } from '~/db/client';
+import { insertRowsAsJson } from '~/db/insert-rows-as-json';
 import type { Actor } from './identity';
 
 export interface AuditEntry {

@@ -4,7 +4,7 @@ import { admin } from 'better-auth/plugins';
 import { createAccessControl } from 'better-auth/plugins/access';
 import { adminAc, defaultStatements } from 'better-auth/plugins/admin/access';
 import { and, eq, isNull } from 'drizzle-orm';
-import { getDb, schema } from '../../db/client';
+import { getDb, schema } from '~/db/client';
 import { DEFAULT_ROLE, ROLES, rolesWith } from '../access';
 import { serverEnv } from './env';
 import { sendMail } from './mail';

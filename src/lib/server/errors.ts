@@ -1,4 +1,4 @@
-import { describeIssue, fieldPathWords } from '../../core/field-path-words';
+import { describeIssue, fieldPathWords } from '~/core/field-path-words';
 
 /**
  * The one error type services throw. Each code is permanent; the HTTP layer maps it to a

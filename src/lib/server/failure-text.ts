@@ -1,5 +1,5 @@
 import { DrizzleQueryError } from 'drizzle-orm';
-import { storableText } from '../../core/text/storable-text';
+import { storableText } from '~/core/text/storable-text';
 
 /**
  * What went wrong, in words worth storing and showing: for a statement the database refused,

@@ -1,5 +1,5 @@
 import type { APIContext, APIRoute } from 'astro';
-import { MAX_ROW_ID, parseRowId } from '../../core/ids/row-id';
+import { MAX_ROW_ID, parseRowId } from '~/core/ids/row-id';
 import { AppError, json, toResponse } from './errors';
 import { actorFromLocals, type Actor } from './identity';
 

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { and, eq, isNull } from 'drizzle-orm';
-import { getDb, schema } from '../../db/client';
+import { getDb, schema } from '~/db/client';
 import {
   STATION_GRANTS, hasPermission, maySeeOwnedRecord, ownedRecordNeed, ownedRecordScope, parseRoles, permissionsOf, type OwnedRecord, type Permission, type Role,
 } from '../access';

@@ -1,5 +1,5 @@
 import nodemailer, { type Transporter } from 'nodemailer';
-import { storableErrorMessage, storableText } from '../../core/text/storable-text';
+import { storableErrorMessage, storableText } from '~/core/text/storable-text';
 import { serverEnv } from './env';
 import { getBoss, QUEUES } from './jobs/boss';
 

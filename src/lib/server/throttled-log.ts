@@ -1,4 +1,4 @@
-import { storableErrorMessage } from '../../core/text/storable-text';
+import { storableErrorMessage } from '~/core/text/storable-text';
 
 /**
  * An error logger for errors that come in bursts (every poll of a fetch loop while the

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { sql } from 'drizzle-orm';
-import { getDb } from '../../db/client';
-import { json } from '../../lib/server/errors';
+import { getDb } from '~/db/client';
+import { json } from '~/lib/server/errors';
 
 export const GET: APIRoute = async () => {
   try {

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { json } from '../../lib/server/errors';
+import { json } from '~/lib/server/errors';
 
 export const GET: APIRoute = ({ locals }) => {
   const u = locals.user;

@@ -1,4 +1,4 @@
-import { getDb, schema } from '../../../db/client';
+import { getDb, schema } from '~/db/client';
 
 /** Two invented device types: an N-channel and a P-channel small-signal part. */
 export const DEMO_DEVICE_TYPES = [

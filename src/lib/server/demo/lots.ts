@@ -1,9 +1,9 @@
 import { eq, inArray } from 'drizzle-orm';
-import { permissionsOf } from '../../access';
-import { getDb, schema } from '../../../db/client';
+import { permissionsOf } from '~/lib/access';
+import { getDb, schema } from '~/db/client';
 import type { Actor } from '../identity';
 import { ingestStoredFile } from '../services/intake/ingest-stored-file';
-import { randomPartParams, seededRandom, simulateSweepCsv, type Defect } from '../../../core/intake/simulated-sweep';
+import { randomPartParams, seededRandom, simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
 import { createLot } from '../services/lots/create';
 import { receiveSweepUpload } from '../services/uploads/receive';
 

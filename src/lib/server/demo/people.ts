@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
-import type { Role } from '../../access';
-import { getDb, schema } from '../../../db/client';
+import type { Role } from '~/lib/access';
+import { getDb, schema } from '~/db/client';
 import { getAuth } from '../auth';
 
 /** The invented lab of the demo scenario: one person per role. */

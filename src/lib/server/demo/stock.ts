@@ -1,7 +1,7 @@
 import { and, eq, inArray, isNull, sql } from 'drizzle-orm';
-import type { BinPlan } from '../../../core/binning';
-import { getDb, schema } from '../../../db/client';
-import { permissionsOf, type Role } from '../../access';
+import type { BinPlan } from '~/core/binning';
+import { getDb, schema } from '~/db/client';
+import { permissionsOf, type Role } from '~/lib/access';
 import type { Actor } from '../identity';
 import { activateBinPlan } from '../services/bin-plans/activate';
 import { assignBinsForParts } from '../services/bins/assign-bins';

@@ -1,5 +1,5 @@
 import type PgBoss from 'pg-boss';
-import { storableText } from '../../../core/text/storable-text';
+import { storableText } from '~/core/text/storable-text';
 import { ingestStoredFiles, refuseAfterRepeatedFailure } from '../services/intake/ingest-stored-file';
 import { JOB_EXPIRE_SECONDS } from './boss';
 import { JobFailure } from './job-failure';

@@ -1,4 +1,4 @@
-import { storableText } from '../../../core/text/storable-text';
+import { storableText } from '~/core/text/storable-text';
 import { describeFailure } from '../failure-text';
 
 /**

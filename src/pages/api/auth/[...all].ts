@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { CLIENT_IP_HEADER, getAuth } from '../../../lib/server/auth';
-import { toAuthErrorResponse, withSignInGuard } from '../../../lib/server/auth-http';
+import { CLIENT_IP_HEADER, getAuth } from '~/lib/server/auth';
+import { toAuthErrorResponse, withSignInGuard } from '~/lib/server/auth-http';
 
 /**
  * better-auth's routes. The client address is Astro's `clientAddress`, which the server entry

@@ -1,6 +1,6 @@
-import { endpoint, json, readJson } from '../../../lib/server/http';
-import { activateBinPlan } from '../../../lib/server/services/bin-plans/activate';
-import { listBinPlans } from '../../../lib/server/services/bin-plans/list';
+import { endpoint, json, readJson } from '~/lib/server/http';
+import { activateBinPlan } from '~/lib/server/services/bin-plans/activate';
+import { listBinPlans } from '~/lib/server/services/bin-plans/list';
 
 export const GET = endpoint(({ url }, actor) => listBinPlans({ actor, deviceType: url.searchParams.get('device_type') }));
 

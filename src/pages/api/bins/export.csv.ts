@@ -1,6 +1,6 @@
-import { endpoint } from '../../../lib/server/http';
-import { binStockCsv } from '../../../lib/server/services/bins/list';
-import { searchParamsObject } from '../../../lib/server/services/bins/schemas';
+import { endpoint } from '~/lib/server/http';
+import { binStockCsv } from '~/lib/server/services/bins/list';
+import { searchParamsObject } from '~/lib/server/services/bins/schemas';
 
 /** The bin stock table as CSV, every page, with the same filters and order. */
 export const GET = endpoint(async ({ url }, actor) => {

@@ -1,6 +1,6 @@
-import { AppError } from '../../../lib/server/errors';
-import { endpoint } from '../../../lib/server/http';
-import { getBinMap } from '../../../lib/server/services/bins/map';
+import { AppError } from '~/lib/server/errors';
+import { endpoint } from '~/lib/server/http';
+import { getBinMap } from '~/lib/server/services/bins/map';
 
 export const GET = endpoint(({ url }, actor) => {
   const deviceType = url.searchParams.get('device_type');

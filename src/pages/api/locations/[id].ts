@@ -1,5 +1,5 @@
-import { endpoint, readJson, rowId } from '../../../lib/server/http';
-import { deleteLocation, updateLocation } from '../../../lib/server/services/locations/save';
+import { endpoint, readJson, rowId } from '~/lib/server/http';
+import { deleteLocation, updateLocation } from '~/lib/server/services/locations/save';
 
 const locationId = (raw: string | undefined) => rowId(raw, 'location');
 

@@ -1,6 +1,6 @@
-import { endpoint, json, readJson } from '../../../lib/server/http';
-import { createLot } from '../../../lib/server/services/lots/create';
-import { listLots } from '../../../lib/server/services/lots/list';
+import { endpoint, json, readJson } from '~/lib/server/http';
+import { createLot } from '~/lib/server/services/lots/create';
+import { listLots } from '~/lib/server/services/lots/list';
 
 export const GET = endpoint((_ctx, actor) => listLots({ actor }).then((lots) => ({ lots })));
 

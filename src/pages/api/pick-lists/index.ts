@@ -1,5 +1,5 @@
-import { endpoint } from '../../../lib/server/http';
-import { listPickLists } from '../../../lib/server/services/pick-lists/list';
+import { endpoint } from '~/lib/server/http';
+import { listPickLists } from '~/lib/server/services/pick-lists/list';
 
 /** GET ?status=open|complete|cancelled|all (default open). */
 export const GET = endpoint(({ url }, actor) =>

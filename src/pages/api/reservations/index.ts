@@ -1,4 +1,4 @@
-import { endpoint } from '../../../lib/server/http';
-import { listReservations } from '../../../lib/server/services/reservations/list';
+import { endpoint } from '~/lib/server/http';
+import { listReservations } from '~/lib/server/services/reservations/list';
 
 export const GET = endpoint((_ctx, actor) => listReservations({ actor }).then((reservations) => ({ reservations })));

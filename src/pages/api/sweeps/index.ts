@@ -1,7 +1,7 @@
-import { AppError } from '../../../lib/server/errors';
-import { capRequestBody, endpoint, json } from '../../../lib/server/http';
-import { receiveSweepUpload, type IncomingFile } from '../../../lib/server/services/uploads/receive';
-import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '../../../lib/server/services/uploads/schemas';
+import { AppError } from '~/lib/server/errors';
+import { capRequestBody, endpoint, json } from '~/lib/server/http';
+import { receiveSweepUpload, type IncomingFile } from '~/lib/server/services/uploads/receive';
+import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '~/lib/server/services/uploads/schemas';
 
 /** Multipart upload of sweep files (fields `file`, tags lot/device_type/...). Answers 202 at once. */
 export const POST = endpoint(async ({ request }, actor) => {

@@ -1,9 +1,9 @@
 import { eq, inArray, sql } from 'drizzle-orm';
-import { lowStockStep } from '../../../../core/stock/low-stock';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { parseRoles } from '../../../access';
-import { serverEnv } from '../../env';
-import { sendMail } from '../../mail';
+import { lowStockStep } from '~/core/stock/low-stock';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { parseRoles } from '~/lib/access';
+import { serverEnv } from '~/lib/server/env';
+import { sendMail } from '~/lib/server/mail';
 import { binCountsFor } from '../bins/counts';
 
 export interface LowStockAlert {

@@ -1,6 +1,6 @@
 import { inArray } from 'drizzle-orm';
-import { auditReferencedIds, describeAuditEntry, type AuditChange } from '../../../../core/audit/describe-audit-entry';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { auditReferencedIds, describeAuditEntry, type AuditChange } from '~/core/audit/describe-audit-entry';
+import { schema, type DbOrTx } from '~/db/client';
 import { reservationCode } from '../reservations/reservation-view';
 
 type AuditRow = typeof schema.auditLog.$inferSelect;

@@ -1,8 +1,8 @@
 import { and, count, desc, eq, gte, ilike, inArray, lt, or, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
-import { AUDIT_ACTION_WORDS } from '../../../../core/audit/describe-audit-entry';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { AUDIT_ACTION_WORDS } from '~/core/audit/describe-audit-entry';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { describeAuditRows, type AuditEntryJson } from './describe-rows';
 
 const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { inArray, sql } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { serverEnv } from '../../env';
+import { getDb, schema } from '~/db/client';
+import { serverEnv } from '~/lib/server/env';
 
 /**
  * Failed sign-ins counted per account (the e-mail as typed, lower-cased) and per client

@@ -1,9 +1,9 @@
 import { asc, eq, inArray, max } from 'drizzle-orm';
-import { binCatalogue } from '../../../../core/binning';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { binCatalogue } from '~/core/binning';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { findDeviceType } from '../bins/device-type-ref';
 import { computeRebin } from './compute-moves';

@@ -1,6 +1,6 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { assignBin, planMoves, type BinFigures, type BinPlan, type PlanMoves } from '../../../../core/binning';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { assignBin, planMoves, type BinFigures, type BinPlan, type PlanMoves } from '~/core/binning';
+import { schema, type DbOrTx } from '~/db/client';
 import { BINNABLE_REVIEWS } from '../bins/assign-bins';
 import { binFiguresOf } from '../bins/figures';
 import type { DeviceTypeRow } from '../bins/device-type-ref';

@@ -1,8 +1,8 @@
 import { asc, desc, eq, sql } from 'drizzle-orm';
-import type { BinPlan } from '../../../../core/binning';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import type { BinPlan } from '~/core/binning';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { findDeviceType } from '../bins/device-type-ref';
 
 export interface BinPlanJson {

@@ -1,7 +1,7 @@
 import { and, desc, eq } from 'drizzle-orm';
-import { binCatalogue, BinPlanError, parseBinPlan, type BinPlan } from '../../../../core/binning';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import { binCatalogue, BinPlanError, parseBinPlan, type BinPlan } from '~/core/binning';
+import { schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 
 export async function activePlanOf(tx: DbOrTx, deviceTypeId: number) {
   const [row] = await tx

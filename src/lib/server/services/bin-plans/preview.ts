@@ -1,8 +1,8 @@
-import { binCatalogue } from '../../../../core/binning';
+import { binCatalogue } from '~/core/binning';
 import { eq, max } from 'drizzle-orm';
-import type { BinPlan } from '../../../../core/binning';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import type { BinPlan } from '~/core/binning';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { findDeviceType } from '../bins/device-type-ref';
 import { computeRebin } from './compute-moves';
 import { activePlanOf, assertPlanSize, parsePlanDefinition } from './load';

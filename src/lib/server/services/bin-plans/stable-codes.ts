@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
-import { withStableBinCodes, type BinPlan, type BinRange } from '../../../../core/binning';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { withStableBinCodes, type BinPlan, type BinRange } from '~/core/binning';
+import { schema, type DbOrTx } from '~/db/client';
 
 /** `plan` as version `version` of the type, with codes that no earlier version used for another range. */
 export async function withStableCodesFor(tx: DbOrTx, deviceTypeId: number, plan: BinPlan, version: number): Promise<BinPlan> {

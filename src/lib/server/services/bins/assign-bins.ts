@@ -1,8 +1,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { assignBin, type BinPlan } from '../../../../core/binning';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import type { Actor } from '../../identity';
+import { assignBin, type BinPlan } from '~/core/binning';
+import { schema, type DbOrTx } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import type { Actor } from '~/lib/server/identity';
 import { binFiguresOf } from './figures';
 
 /** Fit reviews under which a part is binned. */

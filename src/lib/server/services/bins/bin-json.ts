@@ -1,5 +1,5 @@
-import type { BinRange } from '../../../../core/binning';
-import type { BinCounts } from '../../../../core/stock/stock-counts';
+import type { BinRange } from '~/core/binning';
+import type { BinCounts } from '~/core/stock/stock-counts';
 
 /** A bin as the API gives it: ranges in SI with units in the names, counts computed. */
 export interface BinJson {

@@ -1,6 +1,6 @@
 import { inArray, sql } from 'drizzle-orm';
-import { countsFromStatusRows, type BinCounts } from '../../../../core/stock/stock-counts';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { countsFromStatusRows, type BinCounts } from '~/core/stock/stock-counts';
+import { schema, type DbOrTx } from '~/db/client';
 
 /**
  * On-hand, reserved and issued counts of each bin, computed from the parts' states with one

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import { schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 
 export type DeviceTypeRow = typeof schema.deviceType.$inferSelect;
 

@@ -1,6 +1,6 @@
 import { asc } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 /** Device types for the stock pages' pickers. */
 export async function listStockDeviceTypes({ actor }: { actor: Actor | null }) {

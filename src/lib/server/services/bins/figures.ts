@@ -1,5 +1,5 @@
-import type { BinFigures, BinPlan } from '../../../../core/binning';
-import { vgsAtCurrentV } from '../../../../core/jfet-model';
+import type { BinFigures, BinPlan } from '~/core/binning';
+import { vgsAtCurrentV } from '~/core/jfet-model';
 
 export interface FitFigureColumns {
   vtoV: number;

@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
-import { writeCsv } from '../../../../core/csv/write-csv';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { writeCsv } from '~/core/csv/write-csv';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { binJson, type BinJson } from './bin-json';
 import { countSql } from './counts';
 import { findDeviceType } from './device-type-ref';

@@ -1,7 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import type { BinPlan } from '../../../../core/binning';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import type { BinPlan } from '~/core/binning';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { binJson, type BinJson } from './bin-json';
 import { countSql } from './counts';
 import { findDeviceType } from './device-type-ref';

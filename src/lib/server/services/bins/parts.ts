@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
-import { PART_STATUSES, type PartStatus } from '../../../../core/stock/part-transitions';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { PART_STATUSES, type PartStatus } from '~/core/stock/part-transitions';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { z } from 'zod';
 import { loadBin } from './get';
 

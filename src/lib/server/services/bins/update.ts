@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import type { BinJson } from './bin-json';
 import { loadBin } from './get';

@@ -1,6 +1,6 @@
 import { asc } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { toDeviceTypeRow, type DeviceTypeRow } from './schemas';
 
 export async function listDeviceTypes({ actor }: { actor: Actor | null }): Promise<DeviceTypeRow[]> {

@@ -1,6 +1,6 @@
-import { EstimateInputError } from '../../../../core/estimates';
-import { describeIssue } from '../../../../core/field-path-words';
-import { AppError } from '../../errors';
+import { EstimateInputError } from '~/core/estimates';
+import { describeIssue } from '~/core/field-path-words';
+import { AppError } from '~/lib/server/errors';
 
 /** camelCase core field paths → the snake_case names of the request ("lo.amplitudeV" → "lo.amplitude_v"). */
 export function requestFieldName(corePath: string, renames: Record<string, string> = {}): string {

@@ -1,7 +1,7 @@
-import { estimateMixer, paramsFromIdssVp, solveSelfBias, type MixerEstimateInput } from '../../../../core/estimates';
-import type { Channel } from '../../../../core/jfet-model';
-import { getDb } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { estimateMixer, paramsFromIdssVp, solveSelfBias, type MixerEstimateInput } from '~/core/estimates';
+import type { Channel } from '~/core/jfet-model';
+import { getDb } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { withRequestFields } from './core-errors';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
 import { MixerRequest } from './schemas';

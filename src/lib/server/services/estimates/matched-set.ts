@@ -1,8 +1,8 @@
 import { asc, eq } from 'drizzle-orm';
-import { matchedSetImplications, sourceResistorForCurrent } from '../../../../core/estimates';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { matchedSetImplications, sourceResistorForCurrent } from '~/core/estimates';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadOwnReservation } from '../reservations/get';
 import { withRequestFields } from './core-errors';
 import { fitReviewWarnings, loadPartModel } from './part-model';

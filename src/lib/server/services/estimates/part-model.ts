@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
-import type { Channel, JfetParams } from '../../../../core/jfet-model';
-import { partOperatingFigures, type PartBasis } from '../../../../core/operating-point/part-operating-figures';
+import type { Channel, JfetParams } from '~/core/jfet-model';
+import { partOperatingFigures, type PartBasis } from '~/core/operating-point/part-operating-figures';
 import { basisFromColumns } from '../parts/part-basis';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import { schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 
 /** A stored part's current fit, as the estimates use it. */
 export interface PartModel {

@@ -1,7 +1,7 @@
-import { nearestPreferredValue, paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type ESeries, type SelfBiasPoint } from '../../../../core/estimates';
-import type { Channel, JfetParams } from '../../../../core/jfet-model';
-import { getDb } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { nearestPreferredValue, paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type ESeries, type SelfBiasPoint } from '~/core/estimates';
+import type { Channel, JfetParams } from '~/core/jfet-model';
+import { getDb } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { withRequestFields } from './core-errors';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
 import { SelfBiasRequest } from './schemas';

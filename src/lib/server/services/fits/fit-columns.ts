@@ -1,6 +1,6 @@
-import type { FittedResult } from '../../../../core/fit/definitions';
-import type { Channel } from '../../../../core/jfet-model';
-import { operatingTableToBytes } from '../../../../core/operating-point/operating-table';
+import type { FittedResult } from '~/core/fit/definitions';
+import type { Channel } from '~/core/jfet-model';
+import { operatingTableToBytes } from '~/core/operating-point/operating-table';
 
 /**
  * The columns of a fit row from the fitter's result. Parameters stay N-equivalent (VTO

@@ -1,11 +1,11 @@
 import { inArray } from 'drizzle-orm';
-import { IngestRejection } from '../../../../core/intake/ingest-rejection';
-import { lotCodesOf, planParts, readSweepForType } from '../../../../core/intake/plan-sweep-file';
-import { storageGroups } from '../../../../core/intake/storage-groups';
-import { decodeSweepBytes, SweepFileError } from '../../../../core/sweep-file';
-import { getDb, schema } from '../../../../db/client';
-import { describeFailure } from '../../failure-text';
-import { readStoredUpload } from '../../storage/uploads-fs';
+import { IngestRejection } from '~/core/intake/ingest-rejection';
+import { lotCodesOf, planParts, readSweepForType } from '~/core/intake/plan-sweep-file';
+import { storageGroups } from '~/core/intake/storage-groups';
+import { decodeSweepBytes, SweepFileError } from '~/core/sweep-file';
+import { getDb, schema } from '~/db/client';
+import { describeFailure } from '~/lib/server/failure-text';
+import { readStoredUpload } from '~/lib/server/storage/uploads-fs';
 import { UploadTags } from '../uploads/schemas';
 import { deviceTypesByName } from './catalogue-cache';
 import { persistPlans, type PlannedFile } from './persist-plans';
@@ -14,7 +14,7 @@ import { outcomeOf, uploadFilesWithUploader, uploaderOf, type IngestOutcome } fr
 
 export { refuseAfterRepeatedFailure } from './reject-file';
 export type { IngestOutcome, UploadFileState } from './upload-file-rows';
-export type { SweepNoteJson } from '../../../../core/intake/plan-sweep-file';
+export type { SweepNoteJson } from '~/core/intake/plan-sweep-file';
 
 type LotRecord = typeof schema.lot.$inferSelect;
 

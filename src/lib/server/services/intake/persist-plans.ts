@@ -1,11 +1,11 @@
 import { and, eq, inArray, isNull, notInArray, sql } from 'drizzle-orm';
-import type { PlannedPart } from '../../../../core/intake/plan-sweep-file';
-import { IngestRejection } from '../../../../core/intake/ingest-rejection';
-import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
-import { getDb, schema } from '../../../../db/client';
-import { insertRowsAsJson, jsonRecordset } from '../../../../db/insert-rows-as-json';
-import { writeAudit } from '../../audit';
-import type { Actor } from '../../identity';
+import type { PlannedPart } from '~/core/intake/plan-sweep-file';
+import { IngestRejection } from '~/core/intake/ingest-rejection';
+import { checkPartTransition, type PartStatus } from '~/core/stock/part-transitions';
+import { getDb, schema } from '~/db/client';
+import { insertRowsAsJson, jsonRecordset } from '~/db/insert-rows-as-json';
+import { writeAudit } from '~/lib/server/audit';
+import type { Actor } from '~/lib/server/identity';
 import { assignBinsForParts } from '../bins/assign-bins';
 import { fitColumns } from '../fits/fit-columns';
 import { changePartStatuses, type StatusChange } from '../parts/change-status';

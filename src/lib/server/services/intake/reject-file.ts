@@ -1,9 +1,9 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { storableText } from '../../../../core/text/storable-text';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { describeFailure } from '../../failure-text';
-import type { Actor } from '../../identity';
+import { storableText } from '~/core/text/storable-text';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { describeFailure } from '~/lib/server/failure-text';
+import type { Actor } from '~/lib/server/identity';
 import { outcomeOf, uploadFilesWithUploader, uploaderOf, type IngestOutcome } from './upload-file-rows';
 
 /**

@@ -1,6 +1,6 @@
 import { and, eq, type SQL } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import type { Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import type { Actor } from '~/lib/server/identity';
 
 export type UploadFileState = 'queued' | 'fitted' | 'needs_review' | 'rejected';
 

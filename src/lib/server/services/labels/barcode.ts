@@ -1,6 +1,6 @@
 import bwipjs from 'bwip-js/node';
 import { z } from 'zod';
-import { AppError } from '../../errors';
+import { AppError } from '~/lib/server/errors';
 
 export const SYMBOLOGIES = ['code128', 'datamatrix'] as const;
 export type Symbology = (typeof SYMBOLOGIES)[number];

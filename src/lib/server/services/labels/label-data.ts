@@ -1,10 +1,10 @@
-import { partOperatingFigures } from '../../../../core/operating-point/part-operating-figures';
+import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';
 import { loadPartBases } from '../parts/part-basis';
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { formatQuantity } from '../../../../core/units/format-quantity';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
-import { collectScanBatch } from '../../../../core/stock/scan-batch';
+import { formatQuantity } from '~/core/units/format-quantity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
+import { collectScanBatch } from '~/core/stock/scan-batch';
 import { alias } from 'drizzle-orm/pg-core';
 
 export interface LabelContent {

@@ -1,6 +1,6 @@
 import { asc, sql } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export interface LocationJson {
   id: number;

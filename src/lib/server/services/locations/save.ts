@@ -1,8 +1,8 @@
 import { eq, or, sql } from 'drizzle-orm';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { barcodeFromName, LocationInput, LocationPatch } from './schemas';
 
 async function assertFree(tx: DbOrTx, name: string | undefined, barcode: string | undefined, exceptId?: number) {

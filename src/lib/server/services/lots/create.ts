@@ -1,10 +1,10 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '../../../../core/dates/storable-date';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '~/core/dates/storable-date';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export const CreateLotInput = z.object({
   code: z.string().trim().min(1, 'must not be empty').max(60, 'must be at most 60 characters'),

@@ -1,6 +1,6 @@
-import type { MatchCandidate } from '../../../../core/match/match-types';
-import { operatingTableFromBytes } from '../../../../core/operating-point/operating-table';
-import { getPool } from '../../../../db/client';
+import type { MatchCandidate } from '~/core/match/match-types';
+import { operatingTableFromBytes } from '~/core/operating-point/operating-table';
+import { getPool } from '~/db/client';
 
 /**
  * The in-stock parts of one device type with their current fitted models, held in this server

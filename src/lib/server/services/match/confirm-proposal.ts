@@ -1,9 +1,9 @@
 import { asc, eq, inArray } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { serverEnv } from '../../env';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { serverEnv } from '~/lib/server/env';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { loadPickListView, type PickListView } from '../pick-lists/pick-list-view';

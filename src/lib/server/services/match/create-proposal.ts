@@ -1,10 +1,10 @@
-import { chooseMatchedSets } from '../../../../core/match/choose-matched-sets';
-import { DVGS_GUARD_SIGMAS } from '../../../../core/match/set-mismatch';
-import { MatchRequestError } from '../../../../core/match/match-request-error';
-import type { MatchCandidate, MatchResult, MatchTolerances, OperatingPoint } from '../../../../core/match/match-types';
-import { getDb, getPool, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
+import { DVGS_GUARD_SIGMAS } from '~/core/match/set-mismatch';
+import { MatchRequestError } from '~/core/match/match-request-error';
+import type { MatchCandidate, MatchResult, MatchTolerances, OperatingPoint } from '~/core/match/match-types';
+import { getDb, getPool, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadTypeStock, type TypeStock } from './candidate-cache';
 import { findDeviceType, resolveBinCodes, type MatchDeviceType } from './device-type';
 import type { ProposalView, ProposedSet } from './proposal-view';

@@ -1,6 +1,6 @@
 import { eq, inArray, and } from 'drizzle-orm';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 
 export interface MatchDeviceType {
   id: number;

@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { maySeeOwnedRecord, requirePermission, type Actor } from '../../identity';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { maySeeOwnedRecord, requirePermission, type Actor } from '~/lib/server/identity';
 import type { StoredProposalResult } from './create-proposal';
 import type { ProposalView } from './proposal-view';
 

@@ -1,9 +1,9 @@
 import { inArray } from 'drizzle-orm';
-import { checkPartTransition, type PartStatus } from '../../../../core/stock/part-transitions';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import type { Actor } from '../../identity';
+import { checkPartTransition, type PartStatus } from '~/core/stock/part-transitions';
+import { schema, type DbOrTx } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import type { Actor } from '~/lib/server/identity';
 
 export interface StatusChange {
   partId: number;

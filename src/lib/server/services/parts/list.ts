@@ -1,8 +1,8 @@
 import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
-import { PART_STATUSES } from '../../../../core/stock/part-transitions';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { PART_STATUSES } from '~/core/stock/part-transitions';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 

@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
-import { formatModelCard, modelCardName } from '../../../../core/fit/model-card';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { formatModelCard, modelCardName } from '~/core/fit/model-card';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 /**
  * The part's SPICE .model card from its current fit, with comment lines saying where it came

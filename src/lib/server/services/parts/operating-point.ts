@@ -1,11 +1,11 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { fromNEquivalent, vgsAtCurrentV } from '../../../../core/jfet-model';
-import { partOperatingFigures } from '../../../../core/operating-point/part-operating-figures';
-import { normalizeSerial } from '../../../../core/serial/normalize-serial';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { fromNEquivalent, vgsAtCurrentV } from '~/core/jfet-model';
+import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';
+import { normalizeSerial } from '~/core/serial/normalize-serial';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadPartBases } from './part-basis';
 
 const magnitude = (what: string, max: number) =>

@@ -1,8 +1,8 @@
 import { eq, inArray } from 'drizzle-orm';
-import type { Channel } from '../../../../core/jfet-model';
-import { operatingTableFromBytes } from '../../../../core/operating-point/operating-table';
-import type { PartBasis } from '../../../../core/operating-point/part-operating-figures';
-import { schema, type DbOrTx } from '../../../../db/client';
+import type { Channel } from '~/core/jfet-model';
+import { operatingTableFromBytes } from '~/core/operating-point/operating-table';
+import type { PartBasis } from '~/core/operating-point/part-operating-figures';
+import { schema, type DbOrTx } from '~/db/client';
 
 /** A stored part with everything `partOperatingFigures` needs, read in one query. */
 export interface StoredPartBasis {

@@ -1,7 +1,7 @@
-import { parseRowId } from '../../../../core/ids/row-id';
-import { getDb } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { maySeeOwnedRecord, requireOwnedRecordScope, type Actor } from '../../identity';
+import { parseRowId } from '~/core/ids/row-id';
+import { getDb } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { maySeeOwnedRecord, requireOwnedRecordScope, type Actor } from '~/lib/server/identity';
 import { expireDueReservations } from '../reservations/expire';
 import { loadPickListView, type PickListView } from './pick-list-view';
 

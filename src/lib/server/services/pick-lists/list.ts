@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, schema } from '../../../../db/client';
-import { requireOwnedRecordScope, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requireOwnedRecordScope, type Actor } from '~/lib/server/identity';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { expireDueReservations } from '../reservations/expire';
 import { pickLineCounts, pickListCode, reservationCode } from '../reservations/reservation-view';

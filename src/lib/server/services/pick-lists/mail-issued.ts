@@ -1,6 +1,6 @@
-import { getDb } from '../../../../db/client';
-import { serverEnv } from '../../env';
-import { sendMail } from '../../mail';
+import { getDb } from '~/db/client';
+import { serverEnv } from '~/lib/server/env';
+import { sendMail } from '~/lib/server/mail';
 import { loadReservationView } from '../reservations/reservation-view';
 
 const mv = (v: number) => `${(v * 1e3).toFixed(1)} mV`;

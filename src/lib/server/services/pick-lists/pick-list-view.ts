@@ -1,6 +1,6 @@
 import { alias } from 'drizzle-orm/pg-core';
 import { asc, eq } from 'drizzle-orm';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { schema, type DbOrTx } from '~/db/client';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { pickListCode, reservationCode, type ReservationStatus } from '../reservations/reservation-view';
 

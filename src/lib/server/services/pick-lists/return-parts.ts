@@ -1,9 +1,9 @@
-import { normalizeSerial } from '../../../../core/serial/normalize-serial';
+import { normalizeSerial } from '~/core/serial/normalize-serial';
 import { and, eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { pickListCode } from '../reservations/reservation-view';

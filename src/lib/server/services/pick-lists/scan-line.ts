@@ -1,11 +1,11 @@
-import { normalizeSerial } from '../../../../core/serial/normalize-serial';
+import { normalizeSerial } from '~/core/serial/normalize-serial';
 import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { describePartStatus, type PartStatus } from '../../../../core/stock/part-transitions';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { expireDueReservations } from '../reservations/expire';
 import { pickListCode, reservationCode } from '../reservations/reservation-view';

@@ -1,8 +1,8 @@
 import { and, eq, isNotNull, lte, sql } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { serverEnv } from '../../env';
-import { sendMail } from '../../mail';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { serverEnv } from '~/lib/server/env';
+import { sendMail } from '~/lib/server/mail';
 import { checkLowStock } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { reservationCode } from './reservation-view';

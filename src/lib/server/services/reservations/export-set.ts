@@ -1,10 +1,10 @@
 import { eq, inArray } from 'drizzle-orm';
-import { writeCsv } from '../../../../core/csv/write-csv';
-import { formatModelCard } from '../../../../core/fit/model-card';
-import { formatPercent, formatSignificant, type QuantityUnit } from '../../../../core/units/format-quantity';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { writeCsv } from '~/core/csv/write-csv';
+import { formatModelCard } from '~/core/fit/model-card';
+import { formatPercent, formatSignificant, type QuantityUnit } from '~/core/units/format-quantity';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { loadOwnProposal } from '../match/get-proposal';
 import { loadOwnReservation } from './get';

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { getDb, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { maySeeOwnedRecord, requirePermission, type Actor } from '../../identity';
+import { getDb, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { maySeeOwnedRecord, requirePermission, type Actor } from '~/lib/server/identity';
 import { expireDueReservations } from './expire';
 import { loadReservationView, type ReservationView } from './reservation-view';
 

@@ -1,6 +1,6 @@
 import { desc, eq, inArray } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { expireDueReservations } from './expire';
 import { pickLineCounts, pickListCode, reservationCode, type ReservationStatus } from './reservation-view';

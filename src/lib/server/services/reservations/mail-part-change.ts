@@ -1,11 +1,11 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { measureSetMismatch } from '../../../../core/match/set-mismatch';
-import { reservedSetFigures, type ReservedOperatingPoint } from '../../../../core/reservations/reserved-set-figures';
-import { describePartStatus, PART_STATUSES, type PartStatus } from '../../../../core/stock/part-transitions';
-import { formatPercent, formatSignificant } from '../../../../core/units/format-quantity';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { serverEnv } from '../../env';
-import { sendMail, type OutgoingMail } from '../../mail';
+import { measureSetMismatch } from '~/core/match/set-mismatch';
+import { reservedSetFigures, type ReservedOperatingPoint } from '~/core/reservations/reserved-set-figures';
+import { describePartStatus, PART_STATUSES, type PartStatus } from '~/core/stock/part-transitions';
+import { formatPercent, formatSignificant } from '~/core/units/format-quantity';
+import { schema, type DbOrTx } from '~/db/client';
+import { serverEnv } from '~/lib/server/env';
+import { sendMail, type OutgoingMail } from '~/lib/server/mail';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { loadPartBases } from '../parts/part-basis';
 import { reservationCode } from './reservation-view';

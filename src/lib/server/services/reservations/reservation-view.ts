@@ -1,5 +1,5 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm';
-import { schema, type DbOrTx } from '../../../../db/client';
+import { schema, type DbOrTx } from '~/db/client';
 import type { StoredProposalResult } from '../match/create-proposal';
 import type { ProposalView } from '../match/proposal-view';
 

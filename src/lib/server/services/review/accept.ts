@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { assignBinsForParts } from '../bins/assign-bins';
 import { changePartStatuses } from '../parts/change-status';
 import { loadReviewTarget } from './load-target';

@@ -1,8 +1,8 @@
 import { and, asc, eq, ne, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
-import type { FitResult } from '../../../../core/fit/definitions';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import type { FitResult } from '~/core/fit/definitions';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export const ReviewQueueInput = z.object({
   /**

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import { schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 
 /** Locks the part under review and loads its current fit, sweep and type. */
 export async function loadReviewTarget(tx: DbOrTx, serial: string, fitId: number | undefined) {

@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
-import { fitCurveFamily } from '../../../../core/fit/fit-curve-family';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { fitColumns } from '../fits/fit-columns';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';

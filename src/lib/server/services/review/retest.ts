@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { loadReviewTarget } from './load-target';

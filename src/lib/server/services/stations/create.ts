@@ -1,8 +1,8 @@
 import { randomBytes, randomUUID } from 'node:crypto';
 import { z } from 'zod';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { hashStationToken, requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { hashStationToken, requirePermission, type Actor } from '~/lib/server/identity';
 
 export const CreateStationInput = z.object({
   name: z.string().trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),

@@ -1,6 +1,6 @@
 import { desc } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export interface StationRow {
   id: string;

@@ -1,5 +1,5 @@
-import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown, type Summary } from '../../../../core/statistics';
-import { idssInDatasheetSign } from '../../../../core/units/datasheet-sign';
+import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown, type Summary } from '~/core/statistics';
+import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
 
 /** Pure: builds the statistics report from loaded rows. No I/O. */
 

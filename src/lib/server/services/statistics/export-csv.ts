@@ -1,4 +1,4 @@
-import type { Actor } from '../../identity';
+import type { Actor } from '~/lib/server/identity';
 import { getStatistics } from './get';
 import { StatisticsExportQuery } from './schemas';
 import { statisticsCsvFileName, statisticsTableCsv } from './to-csv';

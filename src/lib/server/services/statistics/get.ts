@@ -1,7 +1,7 @@
 import { and, asc, eq, gte, inArray, lte, type SQL } from 'drizzle-orm';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import {
   buildTypeStatistics,
   type BinRangeJson,

@@ -1,6 +1,6 @@
 import { asc, count, desc, eq } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export interface StatisticsOptions {
   device_types: { id: number; name: string; channel: 'n' | 'p' }[];

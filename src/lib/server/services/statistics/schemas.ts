@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '../../../../core/dates/storable-date';
+import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '~/core/dates/storable-date';
 
 const optionalText = z
   .string()

@@ -1,7 +1,7 @@
 import { FIGURES } from './compute-report';
 import type { StatisticsReport } from './get';
 import type { StatisticsTable } from './schemas';
-import { writeCsv as csv } from '../../../../core/csv/write-csv';
+import { writeCsv as csv } from '~/core/csv/write-csv';
 
 /** Pure: one table of a statistics report as CSV (the shared writer; SI units named in headers). */
 

@@ -1,8 +1,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import type { PartStatus } from '../../../../core/stock/part-transitions';
-import { describePartStatus } from '../../../../core/stock/part-transitions';
-import { schema, type DbOrTx } from '../../../../db/client';
-import { AppError } from '../../errors';
+import type { PartStatus } from '~/core/stock/part-transitions';
+import { describePartStatus } from '~/core/stock/part-transitions';
+import { schema, type DbOrTx } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
 import type { LowStockAlert } from '../alerts/low-stock';
 import type { ChangedPart } from '../parts/change-status';
 

@@ -1,10 +1,10 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { z } from 'zod';
-import { compareStockCount, type CountedPart, type StockCountResult } from '../../../../core/stock/compare-stock-count';
-import { describePartStatus, type PartStatus } from '../../../../core/stock/part-transitions';
-import { getDb, schema, type DbOrTx } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { requirePermission, type Actor } from '../../identity';
+import { compareStockCount, type CountedPart, type StockCountResult } from '~/core/stock/compare-stock-count';
+import { describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
+import { getDb, schema, type DbOrTx } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts, type LowStockAlert } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { alertsJson, lockPartsById, resolveLocation } from './batch';

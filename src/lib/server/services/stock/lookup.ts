@@ -1,11 +1,11 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { allowedNextStatuses, describePartStatus, type PartStatus } from '../../../../core/stock/part-transitions';
-import { cleanScannedSerial } from '../../../../core/stock/scan-batch';
-import { getDb, schema } from '../../../../db/client';
+import { allowedNextStatuses, describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
+import { cleanScannedSerial } from '~/core/stock/scan-batch';
+import { getDb, schema } from '~/db/client';
 import { alias } from 'drizzle-orm/pg-core';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export interface PartLookup {
   serial: string;

@@ -1,5 +1,5 @@
-import { getDb } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
 import { MoveInput } from './schemas';

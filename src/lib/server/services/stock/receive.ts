@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { collectScanBatch } from '../../../../core/stock/scan-batch';
+import { collectScanBatch } from '~/core/stock/scan-batch';
 
 /** Serials as scanned: cleaned, blanks dropped, each once (a repeat scan is not an error). */
 export const SerialList = z

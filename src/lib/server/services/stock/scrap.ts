@@ -1,5 +1,5 @@
-import { getDb } from '../../../../db/client';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb } from '~/db/client';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';

@@ -1,5 +1,5 @@
-import type { CurveFamily } from '../../../../core/fit/definitions';
-import type { SweepCurve } from '../../../../core/sweep-file';
+import type { CurveFamily } from '~/core/fit/definitions';
+import type { SweepCurve } from '~/core/sweep-file';
 
 /** A curve as kept in sweep.curves: N-equivalent SI values, points sorted by VDS. */
 export interface StoredCurve {

@@ -1,10 +1,10 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, schema } from '../../../../db/client';
-import { AppError } from '../../errors';
-import { maySeeUpload } from '../../../access';
-import { requirePermission, type Actor } from '../../identity';
-import { fitRetries, type FitRetry } from '../../jobs/fit-attempts';
+import { getDb, schema } from '~/db/client';
+import { AppError } from '~/lib/server/errors';
+import { maySeeUpload } from '~/lib/access';
+import { requirePermission, type Actor } from '~/lib/server/identity';
+import { fitRetries, type FitRetry } from '~/lib/server/jobs/fit-attempts';
 import type { SweepNoteJson } from '../intake/ingest-stored-file';
 
 export interface UploadFileStatus {

@@ -1,14 +1,14 @@
 import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
-import { lotSummaryText, summarizeUploadByLot, type LotSummary } from '../../../../core/intake/summarize-upload-by-lot';
-import { unknownLotOf } from '../../../../core/intake/upload-verdict';
-import { formatDateTime } from '../../../../core/units/format-date';
-import { getDb, schema } from '../../../../db/client';
-import { writeAudit } from '../../audit';
-import { serverEnv } from '../../env';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
-import { deliverMail } from '../../mail';
+import { lotSummaryText, summarizeUploadByLot, type LotSummary } from '~/core/intake/summarize-upload-by-lot';
+import { unknownLotOf } from '~/core/intake/upload-verdict';
+import { formatDateTime } from '~/core/units/format-date';
+import { getDb, schema } from '~/db/client';
+import { writeAudit } from '~/lib/server/audit';
+import { serverEnv } from '~/lib/server/env';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
+import { deliverMail } from '~/lib/server/mail';
 import { getUpload } from './get';
 
 export interface LotSummaryJson extends LotSummary {

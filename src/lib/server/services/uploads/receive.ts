@@ -1,12 +1,12 @@
 import { and, inArray, isNull, ne, sql } from 'drizzle-orm';
-import { capLength, escapeForMessage, MAX_SWEEP_FILE_BYTES, nonTextError } from '../../../../core/sweep-file';
-import { getDb, schema, transactionWithClient, type DbOrTx } from '../../../../db/client';
-import { insertRowsAsJson } from '../../../../db/insert-rows-as-json';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
-import { getBoss, QUEUES } from '../../jobs/boss';
-import { storeUploadBytes } from '../../storage/uploads-fs';
+import { capLength, escapeForMessage, MAX_SWEEP_FILE_BYTES, nonTextError } from '~/core/sweep-file';
+import { getDb, schema, transactionWithClient, type DbOrTx } from '~/db/client';
+import { insertRowsAsJson } from '~/db/insert-rows-as-json';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
+import { getBoss, QUEUES } from '~/lib/server/jobs/boss';
+import { storeUploadBytes } from '~/lib/server/storage/uploads-fs';
 import { MAX_FILES_PER_UPLOAD, UploadTags } from './schemas';
 
 export interface IncomingFile {

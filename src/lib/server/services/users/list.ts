@@ -1,7 +1,7 @@
 import { asc, isNull, eq, and } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { parseRoles } from '../../../access';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { parseRoles } from '~/lib/access';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 
 export interface UserRow {
   id: string;

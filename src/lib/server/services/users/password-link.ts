@@ -1,5 +1,5 @@
 import { and, eq, gt } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
+import { getDb, schema } from '~/db/client';
 
 /**
  * The e-mail address an invitation or reset link is for, while the link is still valid; null

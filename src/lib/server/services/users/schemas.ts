@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ROLES } from '../../../access';
+import { ROLES } from '~/lib/access';
 
 export const RoleList = z.array(z.enum(ROLES)).min(1, 'give at least one role').max(ROLES.length);
 

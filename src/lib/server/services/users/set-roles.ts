@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
-import { getDb, schema } from '../../../../db/client';
-import { parseRoles } from '../../../access';
-import { writeAudit } from '../../audit';
-import { AppError } from '../../errors';
-import { requirePermission, type Actor } from '../../identity';
+import { getDb, schema } from '~/db/client';
+import { parseRoles } from '~/lib/access';
+import { writeAudit } from '~/lib/server/audit';
+import { AppError } from '~/lib/server/errors';
+import { requirePermission, type Actor } from '~/lib/server/identity';
 import { SetRolesInput } from './schemas';
 
 export async function setUserRoles({ actor, input }: { actor: Actor | null; input: unknown }) {

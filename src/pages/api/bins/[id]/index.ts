@@ -1,6 +1,6 @@
-import { endpoint, readJson, rowId } from '../../../../lib/server/http';
-import { getBin } from '../../../../lib/server/services/bins/get';
-import { updateBin } from '../../../../lib/server/services/bins/update';
+import { endpoint, readJson, rowId } from '~/lib/server/http';
+import { getBin } from '~/lib/server/services/bins/get';
+import { updateBin } from '~/lib/server/services/bins/update';
 
 const binId = (raw: string | undefined) => rowId(raw, 'bin');
 

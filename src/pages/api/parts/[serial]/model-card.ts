@@ -1,5 +1,5 @@
-import { endpoint } from '../../../../lib/server/http';
-import { getPartModelCard } from '../../../../lib/server/services/parts/model-card';
+import { endpoint } from '~/lib/server/http';
+import { getPartModelCard } from '~/lib/server/services/parts/model-card';
 
 export const GET = endpoint(async ({ params }, actor) => {
   const { text, fileName } = await getPartModelCard({ actor, serial: params.serial ?? '' });

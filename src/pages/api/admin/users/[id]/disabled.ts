@@ -1,5 +1,5 @@
-import { endpoint, readJson } from '../../../../../lib/server/http';
-import { setUserDisabled } from '../../../../../lib/server/services/users/set-disabled';
+import { endpoint, readJson } from '~/lib/server/http';
+import { setUserDisabled } from '~/lib/server/services/users/set-disabled';
 
 export const PUT = endpoint(async ({ request, params }, actor) => {
   const body = (await readJson(request)) as Record<string, unknown>;

@@ -1,5 +1,5 @@
-import { endpoint, readJson } from '../../../../../lib/server/http';
-import { setUserRoles } from '../../../../../lib/server/services/users/set-roles';
+import { endpoint, readJson } from '~/lib/server/http';
+import { setUserRoles } from '~/lib/server/services/users/set-roles';
 
 export const PUT = endpoint(async ({ request, params }, actor) => {
   const body = (await readJson(request)) as Record<string, unknown>;

@@ -1,6 +1,6 @@
-import { endpoint, readJson } from '../../../../../lib/server/http';
-import { estimateMixerProducts } from '../../../../../lib/server/services/estimates/estimate-mixer';
-import { withSerial } from '../../../../../lib/server/services/estimates/with-serial';
+import { endpoint, readJson } from '~/lib/server/http';
+import { estimateMixerProducts } from '~/lib/server/services/estimates/estimate-mixer';
+import { withSerial } from '~/lib/server/services/estimates/with-serial';
 
 /** POST /api/estimates/parts/{serial}/mixer: the mixer estimate for a stored part's current fit. */
 export const POST = endpoint(async ({ request, params }, actor) =>

@@ -1,6 +1,6 @@
-import { endpoint, readJson } from '../../../../../lib/server/http';
-import { estimateSelfBias } from '../../../../../lib/server/services/estimates/self-bias';
-import { withSerial } from '../../../../../lib/server/services/estimates/with-serial';
+import { endpoint, readJson } from '~/lib/server/http';
+import { estimateSelfBias } from '~/lib/server/services/estimates/self-bias';
+import { withSerial } from '~/lib/server/services/estimates/with-serial';
 
 /** POST /api/estimates/parts/{serial}/self-bias: the self-bias estimate for a stored part's current fit. */
 export const POST = endpoint(async ({ request, params }, actor) =>

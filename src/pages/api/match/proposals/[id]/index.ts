@@ -1,4 +1,4 @@
-import { endpoint } from '../../../../../lib/server/http';
-import { getMatchProposal } from '../../../../../lib/server/services/match/get-proposal';
+import { endpoint } from '~/lib/server/http';
+import { getMatchProposal } from '~/lib/server/services/match/get-proposal';
 
 export const GET = endpoint(({ params }, actor) => getMatchProposal({ actor, id: params.id! }));

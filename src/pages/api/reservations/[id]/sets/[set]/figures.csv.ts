@@ -1,5 +1,5 @@
-import { endpoint } from '../../../../../../lib/server/http';
-import { exportReservationSet } from '../../../../../../lib/server/services/reservations/export-set';
+import { endpoint } from '~/lib/server/http';
+import { exportReservationSet } from '~/lib/server/services/reservations/export-set';
 
 /** GET: a CSV of one set's figures (set numbers from 1), as a download. */
 export const GET = endpoint(async ({ params }, actor) => {
