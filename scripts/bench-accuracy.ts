@@ -12,9 +12,9 @@
  * the p95 ΔVGS error over all same-channel pairs, IDSS error, gm error, and how often the truth
  * lies within 2 stated standard deviations.
  */
-import { fitCurveFamily } from '../src/core/fit/fit-curve-family';
-import { gmAtCurrentS, idssA as modelIdssA, toNEquivalent, vgsAtCurrentV } from '../src/core/jfet-model';
-import { partOperatingFigures, type PartBasis } from '../src/core/operating-point/part-operating-figures';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import { gmAtCurrentS, idssA as modelIdssA, toNEquivalent, vgsAtCurrentV } from '~/core/jfet-model';
+import { partOperatingFigures, type PartBasis } from '~/core/operating-point/part-operating-figures';
 import { nonSquareParts, simulateParts, squareLawParts, withReadingNoise, type SimulatedPart } from '../tests/fixtures/ngspice/nonsquare-parts';
 
 interface Row { part: SimulatedPart; point: string; err: number; sigma: number; modelErr: number; gmErr: number; modelGmErr: number }

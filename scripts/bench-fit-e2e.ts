@@ -56,10 +56,11 @@ if (process.argv.includes('--build') || !fs.existsSync(path.join(ROOT, BUILD_DIR
   run(path.join(ROOT, 'node_modules', '.bin', 'astro'), ['build'], { env: { ...process.env } });
 }
 
-const { getDb, closeDb, getPool } = await import('../src/db/client');
-const { createStationToken } = await import('../src/lib/server/services/stations/create');
-const { FIT_BATCH_SIZE } = await import('../src/lib/server/jobs/fit-upload-file');
-const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/core/intake/simulated-sweep');
+const { getDb, closeDb, getPool } = await import('~/db/client');
+const { createStationToken } = await import('~/lib/server/services/stations/create');
+const { FIT_BATCH_SIZE } = await import('~/lib/server/jobs/fit-upload-file');
+const { randomPartParams, simulateSweepCsv } = await import('~/core/intake/simulated-sweep');
+const { seededRandom } = await import('~/core/random/seeded-random');
 void getDb;
 const station = await createStationToken({ actor: { userId: null, stationId: null, label: 'bench', permissions: ['stations:manage'] }, input: { name: 'bench station' } });
 

@@ -12,10 +12,10 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
-import type { CurveFamily } from '../src/core/fit/definitions.ts';
-import { fitCurveFamily } from '../src/core/fit/fit-curve-family.ts';
-import { prepareCurves } from '../src/core/fit/prepared-curves.ts';
-import { estimateStartingValues } from '../src/core/fit/starting-values.ts';
+import type { CurveFamily } from '~/core/fit/definitions.ts';
+import { fitCurveFamily } from '~/core/fit/fit-curve-family.ts';
+import { prepareCurves } from '~/core/fit/prepared-curves.ts';
+import { estimateStartingValues } from '~/core/fit/starting-values.ts';
 import { maxCurrentA, readCommittedFamily, readNetlistTruth, withNoise } from '../tests/fixtures/ngspice/ngspice-fixtures.ts';
 
 const N = Number(process.argv[2] ?? 200);

@@ -83,8 +83,9 @@ if (process.argv.includes('--build') || !fs.existsSync(path.join(ROOT, BUILD_DIR
 }
 
 // ---------------------------------------------------------------- 100 000 parts, straight into SQL
-const { getPool, closeDb } = await import('../src/db/client');
-const { randomPartParams, seededRandom, simulateSweepCsv } = await import('../src/core/intake/simulated-sweep');
+const { getPool, closeDb } = await import('~/db/client');
+const { randomPartParams, simulateSweepCsv } = await import('~/core/intake/simulated-sweep');
+const { seededRandom } = await import('~/core/random/seeded-random');
 const pool = getPool();
 const q = (text: string, values: unknown[] = []) => pool.query(text, values);
 const t0 = performance.now();

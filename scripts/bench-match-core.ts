@@ -5,19 +5,11 @@
  * uncounted warm-up runs first (a running server's code is already compiled).
  * Run: npx tsx scripts/bench-match-core.ts [runs]
  */
-import { chooseMatchedSets } from '../src/core/match/choose-matched-sets';
-import type { MatchCandidate, MatchTolerances } from '../src/core/match/match-types';
+import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
+import type { MatchCandidate, MatchTolerances } from '~/core/match/match-types';
+import { seededRandom } from '~/core/random/seeded-random';
 
-function mulberry32(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-const rand = mulberry32(20261201);
+const rand = seededRandom(20261201);
 const candidates: MatchCandidate[] = Array.from({ length: 100_000 }, (_, i) => {
   const idss = 1e-3 + rand() * 19e-3;
   const vto = -0.5 - rand() * 3.5;

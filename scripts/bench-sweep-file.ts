@@ -7,8 +7,8 @@
  * 100 000 points (the point limit). Pure core code: what the worker spends before the fit.
  */
 import { performance } from 'node:perf_hooks';
-import { describeNonText, parseSweepFile, SweepFileError } from '../src/core/sweep-file';
-import { readSweepHeader } from '../src/core/sweep-file/read-sweep-header';
+import { describeNonText, parseSweepFile, SweepFileError } from '~/core/sweep-file';
+import { readSweepHeader } from '~/core/sweep-file/read-sweep-header';
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);

@@ -5,7 +5,8 @@ import { and, eq, inArray, ne } from 'drizzle-orm';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL, signIn } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
-import { seededRandom, simulateSweepCsv } from '~/lib/server/services/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /**
  * Issue 13, item 1 (and the stores and inspector additions): every role's main page at phone

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
 import { closeDb, getDb, schema } from '~/db/client';
+import { seededRandom } from '~/core/random/seeded-random';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL } from '../helpers/http';
 
@@ -12,11 +13,6 @@ const RUN = Date.now().toString(36);
 const TYPE = `E2E-N-${RUN}`;
 const LOTS = [`E2E-A-${RUN}`, `E2E-B-${RUN}`, `E2E-C-${RUN}`];
 const PAIR = [`E2E-${RUN}-P1`, `E2E-${RUN}-P2`];
-
-function lcg(seed: number) {
-  let s = seed;
-  return () => ((s = (s * 1664525 + 1013904223) % 4294967296) / 4294967296);
-}
 
 async function seed() {
   const db = getDb();
@@ -29,7 +25,7 @@ async function seed() {
     .insert(schema.bin)
     .values(['A1', 'A2', 'A3', 'A4', 'HOLD'].map((code) => ({ binPlanId: plan.id, code, label: code === 'HOLD' ? 'Hold' : `IDSS range ${code}`, ranges: [] })))
     .returning();
-  const rnd = lcg(7);
+  const rnd = seededRandom(7);
   const gauss = () => Math.sqrt(-2 * Math.log(rnd() + 1e-12)) * Math.cos(2 * Math.PI * rnd());
   const statuses = ['in_stock', 'in_stock', 'accepted', 'reserved', 'needs_review', 'in_stock', 'scrapped', 'in_stock'] as const;
   const serials: { serial: string; lotIdx: number }[] = LOTS.flatMap((_, li) => Array.from({ length: 60 }, (_, i) => ({ serial: `${LOTS[li]}-${i}`, lotIdx: li })));

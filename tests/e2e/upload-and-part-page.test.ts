@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, screenshot, signInThroughForm } from '../helpers/browser';
 import { BASE_URL } from '../helpers/http';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 
 let browser: Browser;
 let page: Page;

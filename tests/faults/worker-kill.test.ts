@@ -1,6 +1,7 @@
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 import { signIn, type Session } from '../helpers/http';
 import { query, startWeb, startWorker, stop, waitFor } from './harness';
 

@@ -4,7 +4,8 @@ import { closeDb, getDb, schema } from '~/db/client';
 import type { Actor } from '~/lib/server/identity';
 import { fitUploadFiles } from '~/lib/server/jobs/fit-upload-file';
 import { ingestStoredFiles } from '~/lib/server/services/intake/ingest-stored-file';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**

@@ -3,7 +3,8 @@ import { eq, inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import type { Actor } from '~/lib/server/identity';
 import { ingestStoredFiles } from '~/lib/server/services/intake/ingest-stored-file';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**

@@ -4,7 +4,8 @@ import { BASE_URL, signIn, type Session } from '../helpers/http';
 import { closeDb, getDb, schema } from '~/db/client';
 import { idssA } from '~/core/jfet-model';
 import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /**
  * Sweep intake end to end: POST /api/sweeps (station token and inspector), the pg-boss worker

@@ -5,7 +5,8 @@ import type { Actor } from '~/lib/server/identity';
 import { getBoss, JOB_EXPIRE_SECONDS, QUEUES, stopBoss } from '~/lib/server/jobs/boss';
 import { fitUploadFiles } from '~/lib/server/jobs/fit-upload-file';
 import { JobFailure } from '~/lib/server/jobs/job-failure';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 import { receiveSweepUpload } from '~/lib/server/services/uploads/receive';
 
 /**

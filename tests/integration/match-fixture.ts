@@ -6,15 +6,7 @@
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import type { JfetParams } from '~/core/jfet-model';
-
-export function mulberry32(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '~/core/random/seeded-random';
 
 export interface StockPart {
   id: number;
@@ -48,7 +40,7 @@ export function demoLikeParams(rand: () => number): JfetParams {
 /** Creates (or finds) the type, its lots, locations, a two-bin plan, and `count` in-stock parts with fits. */
 export async function insertMatchStock(o: StockOptions): Promise<{ typeId: number; parts: StockPart[] }> {
   const db = getDb();
-  const rand = mulberry32(o.seed);
+  const rand = seededRandom(o.seed);
   let [type] = await db.select().from(schema.deviceType).where(eq(schema.deviceType.name, o.typeName));
   if (!type) {
     if (o.existingType) throw new Error(`device type ${o.typeName} is not seeded`);

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inArray } from 'drizzle-orm';
 import { signIn, type Session } from '../helpers/http';
 import { closeDb, getDb, schema } from '~/db/client';
-import { seededRandom, simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /** Issue 13, item 12: an inspector accepts several flagged parts at once, all or nothing. */
 let inspector: Session;

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { signIn, type Session } from '../helpers/http';
 import { closeDb, getDb, schema } from '~/db/client';
-import { seededRandom, simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
+import { simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /** The review queue: flagged fits wait for an inspector, who accepts, refits or sends to retest. */
 

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { mean, quantile, sampleStandardDeviation } from 'simple-statistics';
 import { closeDb, getDb, schema } from '~/db/client';
+import { seededRandom } from '~/core/random/seeded-random';
 import { signIn, type Session } from '../helpers/http';
 
 /**
@@ -13,12 +14,6 @@ const RUN = Date.now().toString(36);
 const TYPE = `STAT-N-${RUN}`;
 const LOT_A = `STAT-A-${RUN}`;
 const LOT_B = `STAT-B-${RUN}`;
-
-/** Deterministic pseudo-random numbers (a linear congruential generator), so a failure repeats. */
-function lcg(seed: number) {
-  let s = seed;
-  return () => ((s = (s * 1664525 + 1013904223) % 4294967296) / 4294967296);
-}
 
 interface Seeded {
   serial: string;
@@ -49,7 +44,7 @@ beforeAll(async () => {
       { code: LOT_B, deviceTypeId: type.id, supplier: 'Weir Street Semis', receivedAt: new Date('2025-03-10T09:00:00Z') },
     ])
     .returning();
-  const rnd = lcg(42);
+  const rnd = seededRandom(42);
   const statuses: Seeded['status'][] = ['accepted', 'in_stock', 'in_stock', 'reserved', 'needs_review', 'scrapped', 'measured'];
   for (const [li, lot] of lots.entries()) {
     const count = li === 0 ? 30 : 20;

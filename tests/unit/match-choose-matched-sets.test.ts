@@ -15,6 +15,7 @@ import {
   vgsAtCurrentV,
   type JfetParams,
 } from '~/core/jfet-model';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /**
  * The reference here is exhaustive enumeration (derived): every valid set is listed from the
@@ -22,15 +23,6 @@ import {
  * is tried. Mismatch definitions as documented in the picker: ΔVGS = max − min, gm and IDSS as
  * 1 − min/max ("IDSS ratio ≥ 0.95" style grading, common practice); cost = Σ mismatch/tolerance.
  */
-
-function mulberry32(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 interface Fig {
   vgsV: number;
@@ -280,7 +272,7 @@ describe.each([
   it(`matches the exhaustive optimum on ${runs} random stocks of 8–12 parts`, () => {
     let nonTrivial = 0;
     for (let seed = 1; seed <= runs; seed++) {
-      const rand = mulberry32(seed * 7919 + shape.length);
+      const rand = seededRandom(seed * 7919 + shape.length);
       const n = 8 + Math.floor(rand() * 5);
       const sameLot = rand() < 0.3;
       const cands = randomStock(rand, n, sameLot);
@@ -306,7 +298,7 @@ describe.each([
 describe('chooseMatchedSets on larger stocks', () => {
   it('pairs: 60-part stocks, count 1–2, the certificate path agrees with brute force', () => {
     for (let seed = 1; seed <= 25; seed++) {
-      const rand = mulberry32(seed + 1000);
+      const rand = seededRandom(seed + 1000);
       const cands = randomStock(rand, 60, false);
       const tol: MatchTolerances = { maxDvgsV: 0.02, maxGmMismatch: 0.05, maxIdssMismatch: 0.1, cascodeMarginV: 0 };
       const op = OPS[seed % 3]!;
@@ -320,7 +312,7 @@ describe('chooseMatchedSets on larger stocks', () => {
   });
 
   it('pairs and quads from 10 000 parts: exact, valid, and no dearer than cheapest-first', () => {
-    const cands = randomStock(mulberry32(99), 10_000, false);
+    const cands = randomStock(seededRandom(99), 10_000, false);
     const op: OperatingPoint = { kind: 'current', idA: 1e-3, vdsV: 10 };
     const tol: MatchTolerances = { maxDvgsV: 0.005, maxGmMismatch: 0.03, maxIdssMismatch: 0.05, cascodeMarginV: 0 };
     const figs = cands.map((c) => refFigures(c.params, op));
@@ -358,7 +350,7 @@ describe('chooseMatchedSets on larger stocks', () => {
   });
 
   it('matched cascodes beyond the exact limit: heuristic, but every set is valid', () => {
-    const rand = mulberry32(42);
+    const rand = seededRandom(42);
     const cands = randomStock(rand, 200, false);
     const tol: MatchTolerances = { maxDvgsV: 0.01, maxGmMismatch: 0.05, maxIdssMismatch: 0.2, cascodeMarginV: 0.2 };
     const op: OperatingPoint = { kind: 'current', idA: 1e-3, vdsV: 10 };
@@ -369,7 +361,7 @@ describe('chooseMatchedSets on larger stocks', () => {
   });
 
   it('reports why parts are unusable and which tolerance binds', () => {
-    const cands = randomStock(mulberry32(7), 40, false);
+    const cands = randomStock(seededRandom(7), 40, false);
     const op: OperatingPoint = { kind: 'current', idA: 1e-3, vdsV: 10 };
     const tol: MatchTolerances = { maxDvgsV: 0.001, maxGmMismatch: Infinity, maxIdssMismatch: Infinity, cascodeMarginV: 0 };
     const r = chooseMatchedSets({ candidates: cands, operatingPoint: op, shape: 'pair', count: 10, tolerances: tol });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fitCurveFamily } from '~/core/fit/fit-curve-family';
 import { intrinsicDrainCurrentA, type JfetParams } from '~/core/jfet-model';
+import { seededRandom } from '~/core/random/seeded-random';
 import { parseSweepFile, SweepFileError, type ParsedSweepPart } from '~/core/sweep-file';
 
 /**
@@ -11,16 +12,10 @@ import { parseSweepFile, SweepFileError, type ParsedSweepPart } from '~/core/swe
  * by a power limit. The parameters must come back within a few standard errors (derived).
  */
 
-/** Seeded normal deviates (xorshift32 + Box–Muller), so every run sees the same noise. */
+/** Seeded normal deviates (Box–Muller on the seeded generator), so every run sees the same noise. */
 function normals(seed: number): () => number {
-  let x = seed >>> 0 || 1;
-  const uniform = () => {
-    x ^= x << 13;
-    x ^= x >>> 17;
-    x ^= x << 5;
-    return ((x >>> 0) + 0.5) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform());
+  const uniform = seededRandom(seed);
+  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
 const CARD: JfetParams = { vtoV: -2, betaAPerV2: 1.25e-3, lambdaPerV: 0.02, rsOhm: 0, rdOhm: 0 };

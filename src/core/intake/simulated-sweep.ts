@@ -1,22 +1,11 @@
 import { drainCurrentA } from '../fit/series-resistance';
 import type { Channel, JfetParams } from '../jfet-model';
+import { seededRandom } from '../random/seeded-random';
 
 /**
  * Invented sweep files for the demo, the end-to-end bench and the tests: a SPICE level-1
  * family (the model of src/core/jfet-model.ts) written in our long CSV format. Pure.
  */
-
-/** Small seeded generator (mulberry32), so the demo is the same on every machine. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export function gaussian(rand: () => number): number {
   const u = Math.max(rand(), 1e-12);

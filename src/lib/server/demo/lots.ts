@@ -3,7 +3,8 @@ import { permissionsOf } from '~/lib/access';
 import { getDb, schema } from '~/db/client';
 import type { Actor } from '../identity';
 import { ingestStoredFile } from '../services/intake/ingest-stored-file';
-import { randomPartParams, seededRandom, simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
+import { randomPartParams, simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
+import { seededRandom } from '~/core/random/seeded-random';
 import { createLot } from '../services/lots/create';
 import { receiveSweepUpload } from '../services/uploads/receive';
 
