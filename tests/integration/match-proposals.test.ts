@@ -3,7 +3,7 @@ import { eq, sql } from 'drizzle-orm';
 import { vgsAtCurrentV, type JfetParams } from '~/core/jfet-model';
 import { modelCardName } from '~/core/fit/model-card';
 import { closeDb, getDb, schema } from '~/db/client';
-import type { ProposalView } from '~/lib/server/services/match/proposal-view';
+import type { ProposalView } from '~/contracts/match';
 import { signIn, type Session } from '../helpers/http';
 import { fitsBySerial, insertMatchStock } from './match-fixture';
 import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';

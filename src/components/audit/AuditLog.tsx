@@ -1,5 +1,5 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import type { AuditLogPage } from '~/lib/server/services/audit/list';
+import type { AuditLogPage } from '~/contracts/audit';
 import { auditActionWords } from '~/core/audit/describe-audit-entry';
 import { useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';

@@ -1,4 +1,4 @@
-import type { AuditEntryJson } from '~/lib/server/services/audit/describe-rows';
+import type { AuditEntryJson } from '~/contracts/audit';
 import { formatDateTime } from '~/core/units/format-date';
 
 /**

@@ -1,6 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import type { MatchableType } from '~/lib/server/services/match/list-types';
-import type { ProposalView, ProposedSet } from '~/lib/server/services/match/proposal-view';
+import type { MatchableType, ProposalView, ProposedSet } from '~/contracts/match';
 import { ApiError, apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { COMMON_PRACTICE_GRADES, proposalVerdict, setGradeWarnings, toleranceWarnings, type AskedTolerances } from '~/core/match/grade-warnings';

@@ -10,6 +10,7 @@ import { ErrorNotice, Loading } from '../ui/states';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { formatMeasuredNumber, formatSignificant } from '~/core/units/format-quantity';
 import { measured, percent, plain, q, when } from './figures';
+import type { FitStandardErrorsJson } from '~/contracts/parts';
 import { flagWord, STATUS_WORDS, statusClass, type PartJson } from './part-types';
 
 /** Flat fitter indices of flag-excluded points → "curve:point" keys. */
@@ -32,7 +33,7 @@ function flagExcludedKeys(part: PartJson): Set<string> {
 }
 
 function ParameterTable({ part }: { part: PartJson }) {
-  const se = part.standard_errors ?? {};
+  const se: Partial<FitStandardErrorsJson> = part.standard_errors ?? {};
   const vds = part.idss_vds_v;
   // Datasheet signs: a P-channel part's IDSS is negative and its VDS too.
   const idss = (a: number | null) => (a === null ? null : idssInDatasheetSign(a, part.channel));

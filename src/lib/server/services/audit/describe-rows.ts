@@ -1,28 +1,10 @@
 import { inArray } from 'drizzle-orm';
-import { auditReferencedIds, describeAuditEntry, type AuditChange } from '~/core/audit/describe-audit-entry';
+import type { AuditEntryJson } from '~/contracts/audit';
+import { auditReferencedIds, describeAuditEntry } from '~/core/audit/describe-audit-entry';
 import { schema, type DbOrTx } from '~/db/client';
 import { reservationCode } from '../reservations/reservation-view';
 
 type AuditRow = typeof schema.auditLog.$inferSelect;
-
-/** One audit row as the part page and the audit log page read it. */
-export interface AuditEntryJson {
-  id: number;
-  at: string;
-  action: string;
-  /** The action in words ("moved"). */
-  what: string;
-  /** The changes in words ("status accepted → in stock, bin I05-P07 → I05-P08"). */
-  summary: string;
-  changes: AuditChange[];
-  /** E-mail of the person, "station NAME", or "system" for jobs. */
-  actor: string;
-  subject_type: string;
-  subject_id: string;
-  reason: string | null;
-  before: unknown;
-  after: unknown;
-}
 
 /** Describes audit rows in words: looks up the people, stations, bins, locations and reservations they name. */
 export async function describeAuditRows(db: DbOrTx, rows: readonly AuditRow[]): Promise<AuditEntryJson[]> {

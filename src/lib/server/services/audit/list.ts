@@ -3,7 +3,8 @@ import { z } from 'zod';
 import { AUDIT_ACTION_WORDS } from '~/core/audit/describe-audit-entry';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { describeAuditRows, type AuditEntryJson } from './describe-rows';
+import type { AuditLogPage } from '~/contracts/audit';
+import { describeAuditRows } from './describe-rows';
 
 const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const day = z.preprocess(blankToUndefined, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional());
@@ -23,14 +24,6 @@ export const ListAuditInput = z.object({
 });
 export type ListAuditInput = z.infer<typeof ListAuditInput>;
 
-export interface AuditLogPage {
-  entries: AuditEntryJson[];
-  total: number;
-  page: number;
-  page_size: number;
-  /** Every action the services write, for the filter's pick list. */
-  actions: string[];
-}
 
 const ACTIONS = Object.keys(AUDIT_ACTION_WORDS).sort();
 

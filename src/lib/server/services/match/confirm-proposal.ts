@@ -10,7 +10,7 @@ import { loadPickListView, type PickListView } from '../pick-lists/pick-list-vie
 import { loadReservationView, reservationCode, type ReservationView } from '../reservations/reservation-view';
 import type { StoredProposalResult } from './create-proposal';
 import { loadOwnProposal } from './get-proposal';
-import { ConfirmRequest } from './schemas';
+import { ConfirmRequest } from '~/contracts/match';
 
 export interface ConfirmedReservation {
   reservation: ReservationView;

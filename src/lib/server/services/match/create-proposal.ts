@@ -7,32 +7,46 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadTypeStock, type TypeStock } from './candidate-cache';
 import { findDeviceType, resolveBinCodes, type MatchDeviceType } from './device-type';
-import type { ProposalView, ProposedSet } from './proposal-view';
-import { ProposalRequest } from './schemas';
+import { ProposalRequest, type ProposalView, type ProposedSet } from '~/contracts/match';
+import type { PartJson } from '~/contracts/parts';
+import { partJson } from '../parts/part-json';
 
 /** What is stored in match_proposal.result (the view without id, dates and reservation). */
 export type StoredProposalResult = Omit<ProposalView, 'id' | 'created_at' | 'reservation_id' | 'server_ms'>;
 
-interface FreshPart {
+interface ChosenPartRow {
   id: number;
-  status: string;
+  serial: string;
+  status: PartJson['status'];
   bin_code: string | null;
+  bin_label: string | null;
   location: string | null;
   lot: string | null;
 }
 
-/** Bin, location and lot of the chosen parts as they are now, with their status. */
-async function readChosenParts(ids: number[]): Promise<Map<number, FreshPart>> {
+/** The chosen parts as they are now (status, bin, location, lot), by part id. */
+async function readChosenParts(type: MatchDeviceType, ids: number[]): Promise<Map<number, PartJson>> {
   if (ids.length === 0) return new Map();
-  const r = await getPool().query<FreshPart>({
+  const r = await getPool().query<ChosenPartRow>({
     name: 'match-chosen-parts',
-    text: `SELECT p.id, p.status::text AS status, b.code AS bin_code, l.name AS location, lt.code AS lot
+    text: `SELECT p.id, p.serial, p.status::text AS status, b.code AS bin_code, b.label AS bin_label, l.name AS location, lt.code AS lot
            FROM part p LEFT JOIN bin b ON b.id = p.bin_id LEFT JOIN location l ON l.id = p.location_id
            LEFT JOIN lot lt ON lt.id = p.lot_id
            WHERE p.id = ANY($1::int[])`,
     values: [ids],
   });
-  return new Map(r.rows.map((row) => [row.id, row]));
+  return new Map(
+    r.rows.map((row) => [
+      row.id,
+      partJson({
+        part: row,
+        type,
+        lot: row.lot === null ? null : { code: row.lot },
+        bin: row.bin_code === null ? null : { code: row.bin_code, label: row.bin_label ?? '' },
+        location: row.location === null ? null : { name: row.location },
+      }),
+    ]),
+  );
 }
 
 const orInfinity = (v: number | null | undefined) => (v === null || v === undefined ? Infinity : v);
@@ -74,7 +88,7 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
   };
 
   let result: MatchResult | undefined;
-  let fresh = new Map<number, FreshPart>();
+  let fresh = new Map<number, PartJson>();
   for (let attempt = 0; attempt < 3; attempt++) {
     try {
       result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c });
@@ -83,7 +97,7 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
       throw err;
     }
     const chosen = result.sets.flatMap((s) => s.parts.map((p) => stock.partIds[stock.slotBySerial.get(p.id)!]!));
-    fresh = await readChosenParts(chosen);
+    fresh = await readChosenParts(type, chosen);
     const gone = new Set(chosen.filter((id) => fresh.get(id)?.status !== 'in_stock'));
     if (gone.size === 0) break;
     candidates = candidates.filter((c) => !gone.has(stock.partIds[stock.slotBySerial.get(c.id)!]!));
@@ -110,7 +124,7 @@ function presentResult(
   stock: TypeStock,
   considered: number,
   result: MatchResult,
-  fresh: Map<number, FreshPart>,
+  fresh: Map<number, PartJson>,
 ): StoredProposalResult {
   const sign = type.channel === 'n' ? 1 : -1;
   const sets: ProposedSet[] = result.sets.map((s, index) => {

@@ -4,7 +4,7 @@ import { getDb, schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { maySeeOwnedRecord, requirePermission, type Actor } from '~/lib/server/identity';
 import type { StoredProposalResult } from './create-proposal';
-import type { ProposalView } from './proposal-view';
+import type { ProposalView } from '~/contracts/match';
 
 export const ProposalId = z.uuid('a proposal id is a UUID');
 

@@ -1,16 +1,7 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
+import type { MatchableType } from '~/contracts/match';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-
-export interface MatchableType {
-  id: number;
-  name: string;
-  channel: 'n' | 'p';
-  vds_test_v: number;
-  in_stock: number;
-  /** Bins of the type's active plan, with how many parts of each are in stock. */
-  bins: { code: string; label: string; in_stock: number }[];
-}
 
 /** Device types a designer can match from, with what is in stock of each. */
 export async function listMatchableTypes({ actor }: { actor: Actor | null }): Promise<MatchableType[]> {

@@ -9,9 +9,12 @@ import { loadPartBases } from './part-basis';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { describeAuditRows, type AuditEntryJson } from '../audit/describe-rows';
+import type { AuditEntryJson } from '~/contracts/audit';
+import type { FitJson, FitStandardErrorsJson, FlagDetailJson, NoFitJson, PartDetailJson, PartOperatingJson } from '~/contracts/parts';
+import { describeAuditRows } from '../audit/describe-rows';
 import type { SweepNoteJson } from '../intake/ingest-stored-file';
 import type { StoredCurve } from '../sweeps/stored-curves';
+import { partJson } from './part-json';
 
 /** NaN (a standard error that could not be estimated) is sent as null. */
 function num(x: number | null | undefined): number | null {
@@ -21,7 +24,7 @@ function num(x: number | null | undefined): number | null {
 type FitRow = typeof schema.fit.$inferSelect;
 
 /** Standard errors of a fit's parameters and derived figures, same units as the figures. */
-export function standardErrorsOf(fit: FitRow) {
+export function standardErrorsOf(fit: FitRow): FitStandardErrorsJson | null {
   const d = fit.detail as FitResult;
   if (d.status !== 'fitted') return null;
   return {
@@ -38,7 +41,7 @@ export function standardErrorsOf(fit: FitRow) {
   };
 }
 
-export function flagDetailsOf(fit: FitRow) {
+export function flagDetailsOf(fit: FitRow): FlagDetailJson[] {
   const d = fit.detail as Partial<FitResult>;
   // Rows written without the full result (e.g. imported) still have the flag codes.
   if (!Array.isArray(d.flags)) return fit.flags.map((code) => ({ code, message: code, excluded_points: [] }));
@@ -46,7 +49,7 @@ export function flagDetailsOf(fit: FitRow) {
 }
 
 /** The figures of one fit in API names (units in the names; VP in datasheet sign). */
-export function fitJson(fit: FitRow) {
+export function fitJson(fit: FitRow): FitJson {
   const d = fit.detail as FitResult;
   return {
     fit_id: fit.id,
@@ -86,7 +89,7 @@ export function fitJson(fit: FitRow) {
  * A part with its latest fit, test conditions, sweep history, model card and (for people who
  * may read the audit log) its audit trail. `serial` is matched after `normalizeSerial`.
  */
-export async function getPartBySerial({ actor, serial }: { actor: Actor | null; serial: string }) {
+export async function getPartBySerial({ actor, serial }: { actor: Actor | null; serial: string }): Promise<PartDetailJson> {
   requirePermission(actor, 'parts:read');
   const db = getDb();
   const [row] = await db
@@ -98,7 +101,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
     .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
     .where(eq(schema.part.serial, normalizeSerial(serial)));
   if (!row) throw new AppError('not_found', `No part with serial ${normalizeSerial(serial)}. Serials are matched after trimming blanks and upper-casing; try the parts search.`);
-  const { part, type, lot, bin, location } = row;
+  const { part, type } = row;
 
   const sweeps = await db
     .select({ sweep: schema.sweep, fileName: schema.uploadFile.originalName, uploadId: schema.uploadFile.uploadId })
@@ -122,7 +125,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
 
   const fitsBySweep = new Map<number, FitRow[]>();
   for (const f of fits) fitsBySweep.set(f.sweepId, [...(fitsBySweep.get(f.sweepId) ?? []), f]);
-  const empty = {
+  const empty: NoFitJson = {
     fit_id: null, model: null, engine_version: null, vto_v: null, beta_a_per_v2: null, lambda_per_v: null, rs_ohm: null, rd_ohm: null,
     idss_a: null, idss_measured_a: null, idss_vds_v: null, vp_v: null, gfs_s: null, gos_s: null, rds_on_ohm: null, rms_rel: null,
     rms_a: null, r_squared: null, iterations: null, points_fitted: null, extended_test: null, flags: [], flag_details: [], review: null,
@@ -131,7 +134,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
 
   const stored = current ? (await loadPartBases(db, [part.id])).get(part.id) : undefined;
   const sign = (x: number) => fromNEquivalent(type.channel, x);
-  let operating = null;
+  let operating: PartOperatingJson | null = null;
   if (stored && current) {
     const vdsTest = current.idssVdsV;
     const idss = partOperatingFigures(stored.basis, { kind: 'idss', vdsV: vdsTest });
@@ -171,14 +174,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
   }
 
   return {
-    serial: part.serial,
-    channel: type.channel,
-    status: part.status,
-    device_type: type.name,
-    lot: lot?.code ?? null,
-    bin_code: bin?.code ?? null,
-    bin_label: bin?.label ?? null,
-    location: location?.name ?? null,
+    ...partJson(row),
     ...(current ? fitJson(current) : empty),
     test_conditions: currentSweep
       ? {

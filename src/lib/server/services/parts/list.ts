@@ -1,31 +1,17 @@
 import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm';
-import { z } from 'zod';
-import { PART_STATUSES } from '~/core/stock/part-transitions';
+import { ListPartsQuery, type PartsPage } from '~/contracts/parts';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-
-const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
-
-export const ListPartsInput = z.object({
-  bin: z.preprocess(blankToUndefined, z.string().trim().max(60).optional()),
-  status: z.preprocess(blankToUndefined, z.enum(PART_STATUSES).optional()),
-  device_type: z.preprocess(blankToUndefined, z.string().trim().max(40).optional()),
-  lot: z.preprocess(blankToUndefined, z.string().trim().max(60).optional()),
-  /** Part of a serial, case-insensitive. */
-  q: z.preprocess(blankToUndefined, z.string().trim().max(60).optional()),
-  page: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(1)),
-  page_size: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(500).default(50)),
-});
-export type ListPartsInput = z.infer<typeof ListPartsInput>;
+import { partJson } from './part-json';
 
 function escapeLike(s: string): string {
   return s.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
 /** Parts with their current figures, filtered and paged on the server, ordered by serial. */
-export async function listParts({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function listParts({ actor, input }: { actor: Actor | null; input: unknown }): Promise<PartsPage> {
   requirePermission(actor, 'parts:read');
-  const f = ListPartsInput.parse(input);
+  const f = ListPartsQuery.parse(input);
   const where: SQL[] = [];
   if (f.status) where.push(eq(schema.part.status, f.status));
   if (f.device_type) where.push(eq(schema.deviceType.name, f.device_type));
@@ -62,15 +48,8 @@ export async function listParts({ actor, input }: { actor: Actor | null; input: 
     page_size: f.page_size,
     total,
     page_count: Math.max(1, Math.ceil(total / f.page_size)),
-    parts: rows.map(({ part, type, lot, bin, location, fit }) => ({
-      serial: part.serial,
-      channel: type.channel,
-      status: part.status,
-      device_type: type.name,
-      lot: lot?.code ?? null,
-      bin_code: bin?.code ?? null,
-      bin_label: bin?.label ?? null,
-      location: location?.name ?? null,
+    parts: rows.map(({ fit, ...row }) => ({
+      ...partJson(row),
       vto_v: fit?.vtoV ?? null,
       beta_a_per_v2: fit?.betaAPerV2 ?? null,
       lambda_per_v: fit?.lambdaPerV ?? null,

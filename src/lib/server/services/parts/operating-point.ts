@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { z } from 'zod';
+import { OperatingPointQuery, type OperatingPointJson } from '~/contracts/parts';
 import { fromNEquivalent, vgsAtCurrentV } from '~/core/jfet-model';
 import { partOperatingFigures } from '~/core/operating-point/part-operating-figures';
 import { normalizeSerial } from '~/core/serial/normalize-serial';
@@ -8,30 +8,13 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadPartBases } from './part-basis';
 
-const magnitude = (what: string, max: number) =>
-  z.coerce
-    .number({ error: `${what} must be a number` })
-    .refine((v) => Number.isFinite(v) && v !== 0 && Math.abs(v) <= max, `${what} must be non-zero and at most ${max} in magnitude`)
-    .transform(Math.abs);
-
-/**
- * `GET /api/parts/{serial}/operating-point?id_a=&vds_v=&temperature_c=`: magnitudes (or
- * datasheet signs; a P-channel part runs at −ID, −VDS), temperature 25 °C when absent.
- */
-export const OperatingPointQuery = z.object({
-  id_a: magnitude('id_a (drain current, A)', 1),
-  vds_v: magnitude('vds_v (drain-source voltage, V)', 200),
-  temperature_c: z.coerce.number({ error: 'temperature_c must be a number' }).min(-60).max(200).default(25),
-});
-export type OperatingPointQuery = z.infer<typeof OperatingPointQuery>;
-
 /**
  * One part's VGS, gm and gos at a drain current and VDS, from `partOperatingFigures` — the same
  * figures matching, estimates and every set view use. VGS in datasheet sign; `uncertainty_v` is
  * one standard deviation of VGS (null when the fit states none); `source` says whether the point
  * was read from the part's measurements or taken from its model outside them.
  */
-export async function getPartOperatingPoint({ actor, serial, query }: { actor: Actor | null; serial: string; query: unknown }) {
+export async function getPartOperatingPoint({ actor, serial, query }: { actor: Actor | null; serial: string; query: unknown }): Promise<OperatingPointJson> {
   requirePermission(actor, 'parts:read');
   const q = OperatingPointQuery.parse(query);
   const wanted = normalizeSerial(serial);

@@ -1,7 +1,7 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm';
 import { schema, type DbOrTx } from '~/db/client';
 import type { StoredProposalResult } from '../match/create-proposal';
-import type { ProposalView } from '../match/proposal-view';
+import type { ProposalView } from '~/contracts/match';
 
 /** A short code people can say and type: R- and the first 8 hex digits of the id. */
 export function reservationCode(id: string): string {
