@@ -1,50 +1,11 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BinPlan, BinQuantity } from '~/core/binning';
+import type { BinPlanActivated, BinPlanList, BinPlanPreview } from '~/contracts/bin-plans';
+import type { BinQuantity } from '~/core/binning';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { formatDate } from '~/core/units/format-date';
 import { axisToForm, defaultAxes, formToPlan, QUANTITY_NAMES, type AxisForm } from './plan-form';
 import PlanGridPreview, { type PreviewPoint } from './PlanGridPreview';
-
-interface PlanRow {
-  id: number;
-  device_type: string;
-  device_type_id: number;
-  version: number;
-  name: string;
-  is_active: boolean;
-  definition: BinPlan;
-  bin_count: number;
-  created_at: string;
-  created_by: string | null;
-}
-
-interface TypeRow {
-  id: number;
-  name: string;
-  channel: 'n' | 'p';
-  vds_test_v: number;
-}
-
-interface Preview {
-  based_on_plan_id: number | null;
-  based_on_version: number | null;
-  next_version: number;
-  bin_count: number;
-  parts_considered: number;
-  moved_count: number;
-  unchanged_count: number;
-  newly_binned_count: number;
-  move_counts: { from: string; to: string; count: number }[];
-  moves: { serial: string; from: string; to: string }[];
-  relabelled: { code: string; oldLabel: string; newLabel: string }[];
-  bins: { code: string; label: string; is_hold: boolean; parts: number }[];
-  definition: BinPlan;
-  old_definition: BinPlan | null;
-  physical_move_count: number;
-  points: PreviewPoint[];
-  points_left_off: number;
-}
 
 function AxisEditor({ axis, index, onChange, onRemove }: { axis: AxisForm; index: number; onChange: (a: AxisForm) => void; onRemove?: () => void }) {
   const unit = axis.quantity === 'idss' ? 'mA' : 'V';
@@ -90,11 +51,11 @@ function AxisEditor({ axis, index, onChange, onRemove }: { axis: AxisForm; index
 }
 
 export default function BinPlanEditor() {
-  const { data, error, loading, reload } = useApi<{ plans: PlanRow[]; device_types: TypeRow[] }>('/api/bin-plans');
+  const { data, error, loading, reload } = useApi<BinPlanList>('/api/bin-plans');
   const [typeName, setTypeName] = useState('');
   const [axes, setAxes] = useState<AxisForm[]>([]);
   const [name, setName] = useState('');
-  const [preview, setPreview] = useState<Preview>();
+  const [preview, setPreview] = useState<BinPlanPreview>();
   const [message, setMessage] = useState<{ ok: boolean; text: string }>();
   const [busy, setBusy] = useState(false);
 
@@ -119,7 +80,7 @@ export default function BinPlanEditor() {
     setBusy(true);
     setMessage(undefined);
     try {
-      setPreview(await apiFetch<Preview>('/api/bin-plans/preview', { method: 'POST', json: { device_type: typeName, name, definition: formToPlan(axes) } }));
+      setPreview(await apiFetch<BinPlanPreview>('/api/bin-plans/preview', { method: 'POST', json: { device_type: typeName, name, definition: formToPlan(axes) } }));
     } catch (e) {
       setPreview(undefined);
       setMessage({ ok: false, text: (e as Error).message });
@@ -132,7 +93,7 @@ export default function BinPlanEditor() {
     if (!preview) return;
     setBusy(true);
     try {
-      const r = await apiFetch<{ plan: { version: number }; moved_count: number; newly_binned_count: number }>('/api/bin-plans', {
+      const r = await apiFetch<BinPlanActivated>('/api/bin-plans', {
         method: 'POST',
         json: { device_type: typeName, name, definition: formToPlan(axes), based_on_plan_id: preview.based_on_plan_id },
       });

@@ -1,14 +1,10 @@
+import type { BinPlanPreview } from '~/contracts/bin-plans';
 import { binEdges, type BinPlan } from '~/core/binning';
 import { formatNumber } from '~/core/units/format-quantity';
 import { useWidth } from '../charts/use-width';
 
-export interface PreviewPoint {
-  serial: string;
-  idss_a: number | null;
-  vp_v: number | null;
-  moves: boolean;
-  on_shelf: boolean;
-}
+/** A part drawn on the preview's grids. */
+export type PreviewPoint = BinPlanPreview['points'][number];
 
 const M = { top: 14, right: 16, bottom: 46, left: 60 };
 

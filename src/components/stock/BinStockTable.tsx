@@ -1,35 +1,16 @@
 import { useEffect, useState } from 'react';
+import type { BinJson, BinSortKey, BinStockPage } from '~/contracts/bins';
 import { apiFetch, useApi } from '../ui/api-client';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
-interface BinRow {
-  id: number;
-  code: string;
-  label: string;
-  is_hold: boolean;
-  device_type: string;
-  plan_version: number;
-  location: { id: number; name: string; barcode: string } | null;
-  on_hand: number;
-  reserved: number;
-  issued: number;
-  low_stock_threshold: number;
-  low: boolean;
-}
-
-interface BinPage {
-  bins: BinRow[];
-  total: number;
-  page: number;
-  page_size: number;
-}
+type BinRow = BinJson;
 
 interface LocationOption {
   id: number;
   name: string;
 }
 
-type SortKey = 'code' | 'label' | 'location' | 'on_hand' | 'reserved' | 'issued' | 'low_stock_threshold' | 'device_type';
+type SortKey = BinSortKey;
 
 const COLUMNS: { key: SortKey; label: string; numeric?: boolean }[] = [
   { key: 'device_type', label: 'Type' },
@@ -126,7 +107,7 @@ export default function BinStockTable({ deviceTypes, canEdit, initial }: { devic
   const [search, setSearch] = useState(f.q);
   const [message, setMessage] = useState<{ text: string; ok: boolean }>();
   const qs = queryString(f);
-  const { data, error, loading, reload } = useApi<BinPage>(`/api/bins?${qs}`);
+  const { data, error, loading, reload } = useApi<BinStockPage>(`/api/bins?${qs}`);
   const locations = useApi<{ locations: LocationOption[] }>('/api/locations');
   useEffect(() => {
     const t = setTimeout(() => setF((old) => (old.q === search ? old : { ...old, q: search, page: 1 })), 300);

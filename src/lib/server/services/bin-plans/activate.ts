@@ -8,7 +8,7 @@ import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { findDeviceType } from '../bins/device-type-ref';
 import { computeRebin } from './compute-moves';
 import { activePlanOf, assertPlanSize, parsePlanDefinition } from './load';
-import { BinPlanDraft } from './schemas';
+import { BinPlanDraft, type BinPlanActivated } from '~/contracts/bin-plans';
 import { withStableCodesFor } from './stable-codes';
 
 /**
@@ -18,7 +18,7 @@ import { withStableCodesFor } from './stable-codes';
  * bin assignment and an audit entry for exactly the parts whose bin code changes (and those
  * binned for the first time). Earlier versions, their bins and all assignments stay.
  */
-export async function activateBinPlan({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function activateBinPlan({ actor, input }: { actor: Actor | null; input: unknown }): Promise<BinPlanActivated> {
   requirePermission(actor, 'binPlans:manage');
   const draft = BinPlanDraft.parse(input);
   const draftPlan = parsePlanDefinition(draft.definition);

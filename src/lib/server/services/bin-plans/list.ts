@@ -1,22 +1,10 @@
 import { asc, desc, eq, sql } from 'drizzle-orm';
+import type { BinPlanDetail, BinPlanJson, BinPlanList } from '~/contracts/bin-plans';
 import type { BinPlan } from '~/core/binning';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { findDeviceType } from '../bins/device-type-ref';
-
-export interface BinPlanJson {
-  id: number;
-  device_type: string;
-  device_type_id: number;
-  version: number;
-  name: string;
-  is_active: boolean;
-  definition: BinPlan;
-  bin_count: number;
-  created_at: string;
-  created_by: string | null;
-}
 
 const columns = {
   id: schema.binPlan.id,
@@ -49,7 +37,7 @@ function planJson(r: Row): BinPlanJson {
 }
 
 /** Every version of every plan (or of one type), newest first within each type. */
-export async function listBinPlans({ actor, deviceType }: { actor: Actor | null; deviceType?: string | null }) {
+export async function listBinPlans({ actor, deviceType }: { actor: Actor | null; deviceType?: string | null }): Promise<BinPlanList> {
   requirePermission(actor, 'binPlans:read');
   const db = getDb();
   const type = deviceType ? await findDeviceType(db, deviceType) : null;
@@ -67,7 +55,7 @@ export async function listBinPlans({ actor, deviceType }: { actor: Actor | null;
   };
 }
 
-export async function getBinPlan({ actor, id }: { actor: Actor | null; id: number }) {
+export async function getBinPlan({ actor, id }: { actor: Actor | null; id: number }): Promise<BinPlanDetail> {
   requirePermission(actor, 'binPlans:read');
   const db = getDb();
   const [row] = await db
@@ -85,6 +73,6 @@ export async function getBinPlan({ actor, id }: { actor: Actor | null; id: numbe
     .orderBy(schema.bin.id);
   return {
     plan: planJson(row),
-    bins: bins.map((b) => ({ id: b.id, code: b.code, label: b.label, is_hold: b.isHold, ranges: b.ranges, location: b.location, low_stock_threshold: b.threshold })),
+    bins: bins.map((b) => ({ id: b.id, code: b.code, label: b.label, is_hold: b.isHold, ranges: b.ranges as BinPlanDetail['bins'][number]['ranges'], location: b.location, low_stock_threshold: b.threshold })),
   };
 }

@@ -1,5 +1,5 @@
 import { and, desc, eq } from 'drizzle-orm';
-import { binCatalogue, BinPlanError, parseBinPlan, type BinPlan } from '~/core/binning';
+import { binCatalogue, parseBinPlan, type BinPlan } from '~/core/binning';
 import { schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 
@@ -13,20 +13,11 @@ export async function activePlanOf(tx: DbOrTx, deviceTypeId: number) {
   return row ?? null;
 }
 
-/** Parses an admin's plan, turning the core's BinPlanError into invalid_input that names each field. */
+/** Parses the `definition` of an admin's request; a BinPlanError names its fields under `definition`. */
 export function parsePlanDefinition(input: unknown): BinPlan {
-  try {
-    const plan = parseBinPlan(input);
-    binCatalogue(plan);
-    return plan;
-  } catch (err) {
-    if (err instanceof BinPlanError) {
-      throw new AppError('invalid_input', err.message, {
-        fields: err.issues.map((i) => ({ field: ['definition', ...i.path].join('.'), message: i.message })),
-      });
-    }
-    throw err;
-  }
+  const plan = parseBinPlan(input, ['definition']);
+  binCatalogue(plan);
+  return plan;
 }
 
 /** Most bins one plan may have (grid cells plus hold); keeps a typo from making 10⁶ rows. */
@@ -35,7 +26,7 @@ export const MAX_BINS_PER_PLAN = 2500;
 export function assertPlanSize(plan: BinPlan): number {
   const n = binCatalogue(plan).length;
   if (n > MAX_BINS_PER_PLAN) {
-    throw new AppError('invalid_input', `The plan makes ${n} bins; at most ${MAX_BINS_PER_PLAN} are allowed. Use wider ranges or fewer of them.`);
+    throw new AppError('bin_plan_too_many_bins', { bins: n, max: MAX_BINS_PER_PLAN });
   }
   return n;
 }

@@ -6,7 +6,7 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { findDeviceType } from '../bins/device-type-ref';
 import { computeRebin } from './compute-moves';
 import { activePlanOf, assertPlanSize, parsePlanDefinition } from './load';
-import { BinPlanDraft } from './schemas';
+import { BinPlanDraft, type BinPlanPreview } from '~/contracts/bin-plans';
 import { withStableCodesFor } from './stable-codes';
 
 /** Moves listed in full up to this many; the counts always cover every part. */
@@ -20,7 +20,7 @@ const ON_SHELF = new Set(['in_stock', 'reserved', 'returned']);
  * What saving a plan would do, without saving anything: the bins it makes, how many parts move
  * and from which bin to which, which parts get their first bin, and which bags need new labels.
  */
-export async function previewBinPlan({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function previewBinPlan({ actor, input }: { actor: Actor | null; input: unknown }): Promise<BinPlanPreview> {
   requirePermission(actor, 'binPlans:manage');
   const draft = BinPlanDraft.parse(input);
   const draftPlan = parsePlanDefinition(draft.definition);

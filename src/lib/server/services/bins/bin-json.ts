@@ -1,31 +1,6 @@
 import type { BinRange } from '~/core/binning';
 import type { BinCounts } from '~/core/stock/stock-counts';
-
-/** A bin as the API gives it: ranges in SI with units in the names, counts computed. */
-export interface BinJson {
-  id: number;
-  code: string;
-  label: string;
-  is_hold: boolean;
-  device_type: string;
-  device_type_id: number;
-  plan_id: number;
-  plan_version: number;
-  ranges: { quantity: string; lo_value: number; hi_value: number; unit: 'A' | 'V' }[];
-  idss_lo_a: number | null;
-  idss_hi_a: number | null;
-  vp_lo_v: number | null;
-  vp_hi_v: number | null;
-  vgs_lo_v: number | null;
-  vgs_hi_v: number | null;
-  location: { id: number; name: string; barcode: string } | null;
-  on_hand: number;
-  reserved: number;
-  issued: number;
-  low_stock_threshold: number;
-  low: boolean;
-  low_stock_alerted_at: string | null;
-}
+import type { BinJson } from '~/contracts/bins';
 
 export interface BinRowForJson {
   id: number;

@@ -2,7 +2,8 @@ import { eq } from 'drizzle-orm';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { binJson, type BinJson } from './bin-json';
+import type { BinJson } from '~/contracts/bins';
+import { binJson } from './bin-json';
 import { binColumns } from './list';
 import { countSql } from './counts';
 

@@ -2,19 +2,10 @@ import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import { writeCsv } from '~/core/csv/write-csv';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { binJson, type BinJson } from './bin-json';
+import { BinStockQuery, type BinJson, type BinSortKey, type BinStockPage } from '~/contracts/bins';
+import { binJson } from './bin-json';
 import { countSql } from './counts';
 import { findDeviceType } from './device-type-ref';
-import { BinStockQuery, type BinSortKey } from './schemas';
-
-export interface BinStockPage {
-  bins: BinJson[];
-  total: number;
-  page: number;
-  page_size: number;
-  sort: BinSortKey;
-  dir: 'asc' | 'desc';
-}
 
 export const binColumns = {
   id: schema.bin.id,

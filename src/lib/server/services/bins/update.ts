@@ -4,9 +4,8 @@ import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
-import type { BinJson } from './bin-json';
+import { UpdateBinInput, type BinJson } from '~/contracts/bins';
 import { loadBin } from './get';
-import { UpdateBinInput } from './schemas';
 
 /** Sets a bin's home location and/or low-stock threshold; a new threshold is checked at once. */
 export async function updateBin({ actor, binId, input }: { actor: Actor | null; binId: number; input: unknown }): Promise<BinJson> {
