@@ -1,7 +1,7 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
-import { serverEnv } from '../lib/server/env';
-import { throttledErrorLog } from '../lib/server/throttled-log';
+import { throttledErrorLog } from './connection-error-log';
+import { dbConfig } from './db-config';
 import * as schema from './schema';
 
 const poolErrorLog = throttledErrorLog('[db] connection lost:');
@@ -16,7 +16,8 @@ let database: Database | undefined;
 /** The process-wide pool and Drizzle client, created on first use. */
 export function getDb(): Database {
   if (!database) {
-    pool = new pg.Pool({ connectionString: serverEnv().databaseUrl, max: serverEnv().dbPoolSize });
+    const { databaseUrl, poolSize } = dbConfig();
+    pool = new pg.Pool({ connectionString: databaseUrl, max: poolSize });
     // An idle connection that the server closes (a restart, an administrator's kill) is
     // reported here; without a listener that would end the process. The pool drops the
     // connection and opens a new one for the next query.

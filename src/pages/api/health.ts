@@ -1,13 +1,9 @@
 import type { APIRoute } from 'astro';
-import { sql } from 'drizzle-orm';
-import { getDb } from '~/db/client';
 import { json } from '~/lib/server/errors';
+import { checkHealth } from '~/lib/server/services/health/check-health';
 
 export const GET: APIRoute = async () => {
-  try {
-    await getDb().execute(sql`select 1`);
-    return json({ ok: true });
-  } catch {
-    return json({ ok: false, error: { code: 'internal', message: 'The database does not answer.' } }, 503);
-  }
+  const { databaseAnswers } = await checkHealth();
+  if (databaseAnswers) return json({ ok: true });
+  return json({ ok: false, error: { code: 'internal', message: 'The database does not answer.' } }, 503);
 };

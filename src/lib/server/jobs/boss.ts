@@ -1,6 +1,6 @@
 import PgBoss from 'pg-boss';
 import { serverEnv } from '../env';
-import { throttledErrorLog } from '../throttled-log';
+import { throttledErrorLog } from '~/db/connection-error-log';
 
 /** Queue names; each has one handler registered by the worker. */
 export const QUEUES = {

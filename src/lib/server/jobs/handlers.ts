@@ -1,4 +1,5 @@
 import type PgBoss from 'pg-boss';
+import { serverEnv } from '../env';
 import { QUEUES } from './boss';
 import { FIT_BATCH_SIZE, fitUploadFiles, refuseDeadFitJobs, type FitUploadFileJob } from './fit-upload-file';
 import { registerExpireReservations } from './expire-reservations';
@@ -6,12 +7,10 @@ import { guardJobHandler } from './job-failure';
 import { sendQueuedMail } from './send-mail';
 import type { OutgoingMail } from '../mail';
 
-/** Parallel fetch loops per worker process: one fits while the other waits on the database. */
-const FIT_LOOPS = Number(process.env.SLUICE_FIT_LOOPS ?? 2);
-
 /** Registers every queue's handler on `boss`; returns the queue names being worked. */
 export async function registerJobHandlers(boss: PgBoss): Promise<string[]> {
-  for (let i = 0; i < FIT_LOOPS; i++) {
+  // Parallel fetch loops (SLUICE_FIT_LOOPS, 2 by default): one fits while the other waits on the database.
+  for (let i = 0; i < serverEnv().fitLoops; i++) {
     let id = '';
     const fit = guardJobHandler(QUEUES.fitUploadFile, fitUploadFiles);
     id = await boss.work<FitUploadFileJob>(

@@ -1,9 +1,10 @@
 import { storableErrorMessage } from '~/core/text/storable-text';
 
 /**
- * An error logger for errors that come in bursts (every poll of a fetch loop while the
- * database is down): the first one in each `windowMs` is logged with its stack, the rest
- * are counted and summed up in the next line.
+ * A logger for connection errors, which come in bursts (every pooled connection and every
+ * poll of a fetch loop while the database is down): the first one in each `windowMs` is
+ * logged with its stack, the rest are counted and summed up in the next line. Used by the
+ * pool here and by pg-boss (src/lib/server/jobs/boss.ts).
  */
 export function throttledErrorLog(prefix: string, windowMs = 10_000): (err: unknown) => void {
   let windowStart = 0;
