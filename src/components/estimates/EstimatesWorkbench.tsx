@@ -2,9 +2,8 @@ import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 're
 import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '~/core/estimates/defaults-from-part';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat, formatMeasuredNumber, formatPlain } from '~/core/units/format-quantity';
-import type { estimateMixerProducts } from '~/lib/server/services/estimates/estimate-mixer';
-import type { estimateSelfBias } from '~/lib/server/services/estimates/self-bias';
-import type { estimateMatchedSet } from '~/lib/server/services/estimates/matched-set';
+import type { MatchedSetEstimateJson, MixerEstimateJson, SelfBiasEstimateJson, SelfBiasPointJson } from '~/contracts/estimates';
+import type { PartDetailJson } from '~/contracts/parts';
 import { sig as formatQuantity } from './sig';
 import { ApiError, apiFetch } from '../ui/api-client';
 import { Empty } from '../ui/states';
@@ -27,16 +26,12 @@ import {
 import { MixerTable } from './MixerTable';
 import { MatchedSetCard } from './MatchedSetCard';
 
-type MixerResult = Awaited<ReturnType<typeof estimateMixerProducts>>;
-type SelfBiasResult = Awaited<ReturnType<typeof estimateSelfBias>>;
-export type SetResult = Awaited<ReturnType<typeof estimateMatchedSet>>;
-type SelfBiasPointBody = NonNullable<SelfBiasResult['for_target_current']>;
 
 interface PartOutcome {
   key: string;
   title: string;
-  selfBias?: SelfBiasResult | null;
-  mixer?: MixerResult | null;
+  selfBias?: SelfBiasEstimateJson | null;
+  mixer?: MixerEstimateJson | null;
   errors: string[];
 }
 
@@ -81,7 +76,7 @@ interface BiasRow {
   testId?: string;
 }
 
-const fromBody = (label: string, p: SelfBiasPointBody): BiasRow => ({
+const fromBody = (label: string, p: SelfBiasPointJson): BiasRow => ({
   label,
   rsOhm: p.source_resistor_ohm,
   idA: p.drain_current_a,
@@ -98,13 +93,13 @@ const fromBody = (label: string, p: SelfBiasPointBody): BiasRow => ({
  * The resistor the target needs rounded to the nearest IEC 60063 E24 and E96 values, and the
  * current each sets, as the server solved them for the same part.
  */
-function preferredRows(r: SelfBiasResult): BiasRow[] {
+function preferredRows(r: SelfBiasEstimateJson): BiasRow[] {
   return r.preferred_resistors.map((p) => ({ ...fromBody(`nearest ${p.series} (IEC 60063)`, p), testId: `preferred-${p.series}` }));
 }
 
-function SelfBiasTable({ r }: { r: SelfBiasResult }) {
+function SelfBiasTable({ r }: { r: SelfBiasEstimateJson }) {
   const rows: BiasRow[] = [];
-  const bodies: SelfBiasPointBody[] = [];
+  const bodies: SelfBiasPointJson[] = [];
   if (r.for_target_current) {
     rows.push(fromBody('for the target current', r.for_target_current), ...preferredRows(r));
     bodies.push(r.for_target_current);
@@ -242,7 +237,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
   const [formMessage, setFormMessage] = useState<string>();
   const [busy, setBusy] = useState(false);
   const [outcomes, setOutcomes] = useState<PartOutcome[]>([]);
-  const [setResult, setSetResult] = useState<SetResult | null>(null);
+  const [setResult, setSetResult] = useState<MatchedSetEstimateJson | null>(null);
   const set = (patch: Partial<EstimateForm>) => setForm((f) => ({ ...f, ...patch }));
   // Inputs the person typed keep their value; the others follow the part.
   const [touched, setTouched] = useState<ReadonlySet<FormField>>(new Set());
@@ -259,7 +254,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     }
     let live = true;
     const timer = setTimeout(() => {
-      apiFetch<{ idss_a: number | null; vp_v: number | null }>(`/api/parts/${encodeURIComponent(serial)}`)
+      apiFetch<PartDetailJson>(`/api/parts/${encodeURIComponent(serial)}`)
         .then((p) => {
           if (!live) return;
           if (p.idss_a === null || p.vp_v === null) {
@@ -332,7 +327,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
   async function halfVpOf(part: Parameters<typeof selfBiasBody>[1]): Promise<number> {
     if ('vp_v' in part) return estimateDefaultsForPart({ idssA: part.idss_a, vpV: part.vp_v }).vgs0V;
     if (stored && stored.serial === part.serial) return estimateDefaultsForPart(stored).vgs0V;
-    const p = await apiFetch<{ idss_a: number | null; vp_v: number | null }>(`/api/parts/${encodeURIComponent(part.serial)}`);
+    const p = await apiFetch<PartDetailJson>(`/api/parts/${encodeURIComponent(part.serial)}`);
     if (p.idss_a === null || p.vp_v === null) throw new Error(`${part.serial} has no fit, so VP/2 is unknown; choose a fixed VGS0.`);
     return estimateDefaultsForPart({ idssA: p.idss_a, vpV: p.vp_v }).vgs0V;
   }
@@ -373,7 +368,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     const calls: Promise<void>[] = [];
     if (sb) {
       calls.push(
-        apiFetch<SelfBiasResult>('/api/estimates/self-bias', { method: 'POST', json: sb })
+        apiFetch<SelfBiasEstimateJson>('/api/estimates/self-bias', { method: 'POST', json: sb })
           .then((r) => void (outcome.selfBias = r))
           .catch((e) => {
             outcome.errors.push(`Self-bias: ${messageOf(e)}`);
@@ -383,7 +378,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     }
     if (mx) {
       calls.push(
-        apiFetch<MixerResult>('/api/estimates/mixer', { method: 'POST', json: mx })
+        apiFetch<MixerEstimateJson>('/api/estimates/mixer', { method: 'POST', json: mx })
           .then((r) => void (outcome.mixer = r))
           .catch((e) => {
             outcome.errors.push(`Mixer: ${messageOf(e)}`);
@@ -401,7 +396,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     const local: FieldErrors = {};
     try {
       let parts: { ref: Parameters<typeof selfBiasBody>[1]; title: string }[] = [];
-      let setOut: SetResult | null = null;
+      let setOut: MatchedSetEstimateJson | null = null;
       if (form.source === 'set') {
         const ref = readSetRef(form.set_ref);
         if ('serials' in ref && ref.serials.length < 2) local.set_ref = 'expected a reservation id, or two or more serials separated by spaces or commas';
@@ -412,7 +407,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
         const lo = form.mixer ? readNumber(form, 'lo_mv', local, false, 1e-3) : undefined;
         if (Object.keys(local).length) throw new FormInputError(local);
         try {
-          setOut = await apiFetch<SetResult>('/api/estimates/set', {
+          setOut = await apiFetch<MatchedSetEstimateJson>('/api/estimates/set', {
             method: 'POST',
             json: { ...ref, target_drain_current_a: target, vds_v: vds, ...(rd !== undefined ? { drain_load_ohm: rd } : {}), ...(lo !== undefined ? { lo_amplitude_v: lo } : {}) },
           });

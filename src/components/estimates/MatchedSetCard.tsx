@@ -1,13 +1,13 @@
 import { formatPercent, formatPlain } from '~/core/units/format-quantity';
 import { sig as formatQuantity } from './sig';
-import type { SetResult } from './EstimatesWorkbench';
+import type { MatchedSetEstimateJson } from '~/contracts/estimates';
 
 function mv(x: number) {
   return `${formatPlain(x * 1e3, 2)} mV`;
 }
 
 /** Each set's parts at one operating point and what their spread means in two circuits. */
-export function MatchedSetCard({ result }: { result: SetResult }) {
+export function MatchedSetCard({ result }: { result: MatchedSetEstimateJson }) {
   const op = result.operating_point;
   return (
     <section className="card space-y-4" aria-label="Matched sets">

@@ -1,4 +1,5 @@
 import { estimateMixer, paramsFromIdssVp, solveSelfBias, type MixerEstimateInput } from '~/core/estimates';
+import type { MixerEstimateJson } from '~/contracts/estimates';
 import type { Channel } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -13,7 +14,7 @@ export const MIXER_MODEL =
  * The square-law mixer's output products for data-sheet IDSS/VP or a stored part's current fit.
  * With a source resistor the bias VGS0 is the self-bias point of the same square law.
  */
-export async function estimateMixerProducts({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function estimateMixerProducts({ actor, input }: { actor: Actor | null; input: unknown }): Promise<MixerEstimateJson> {
   requirePermission(actor, 'estimates:use');
   const body = MixerRequest.parse(input);
   const stored = body.serial !== undefined ? await loadPartModel(getDb(), body.serial) : null;
@@ -58,7 +59,7 @@ export async function estimateMixerProducts({ actor, input }: { actor: Actor | n
     dc_drain_current_a: result.dcDrainCurrentA,
     effective_drive: { rf_v: result.effectiveDrive.rfV, lo_v: result.effectiveDrive.loV },
     load_ohm: body.load_ohm,
-    probe_capacitance_f: coreInput.probeCapacitanceF,
+    probe_capacitance_f: body.probe_capacitance_f ?? 0,
     products: result.products.map((p) => ({
       name: p.name,
       frequency_hz: p.frequencyHz,

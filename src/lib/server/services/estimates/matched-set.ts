@@ -1,5 +1,6 @@
 import { asc, eq } from 'drizzle-orm';
 import { matchedSetImplications, sourceResistorForCurrent } from '~/core/estimates';
+import type { MatchedSetEstimateJson } from '~/contracts/estimates';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -55,7 +56,7 @@ async function membersOf(actor: Actor, body: SetRequest): Promise<Map<number, Se
  * Every part of a set (a reservation's sets, or a list of serials) at one operating point, and
  * what the spread means for a differential pair and a balanced mixer, pair by pair.
  */
-export async function estimateMatchedSet({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function estimateMatchedSet({ actor, input }: { actor: Actor | null; input: unknown }): Promise<MatchedSetEstimateJson> {
   requirePermission(actor, 'estimates:use');
   const body = SetRequest.parse(input);
   const sets = await membersOf(actor, body);

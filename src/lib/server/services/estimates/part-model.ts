@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm';
 import type { Channel, JfetParams } from '~/core/jfet-model';
 import { partOperatingFigures, type PartBasis } from '~/core/operating-point/part-operating-figures';
 import { basisFromColumns } from '../parts/part-basis';
+import type { EstimatePartJson } from '~/contracts/estimates';
 import { schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 
@@ -66,7 +67,7 @@ export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'
 }
 
 /** What the response says about the stored part an estimate used. */
-export function describePartModel(m: PartModel) {
+export function describePartModel(m: PartModel): EstimatePartJson {
   return {
     serial: m.serial,
     device_type: m.deviceType,

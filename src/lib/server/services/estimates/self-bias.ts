@@ -1,4 +1,5 @@
 import { nearestPreferredValue, paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type ESeries, type SelfBiasPoint } from '~/core/estimates';
+import type { SelfBiasEstimateJson, SelfBiasPointJson } from '~/contracts/estimates';
 import type { Channel, JfetParams } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -9,7 +10,7 @@ import { SelfBiasRequest } from './schemas';
 export const SELF_BIAS_MODEL =
   'SPICE level-1 JFET in saturation (with λ and the fitted RS/RD when the part has them), gate returned to ground through a resistor, VGS = −ID·RS solved exactly; low-frequency small-signal gm and gos.';
 
-export function selfBiasPointBody(p: SelfBiasPoint) {
+export function selfBiasPointBody(p: SelfBiasPoint): SelfBiasPointJson {
   return {
     drain_current_a: p.idA,
     vgs_v: p.vgsV,
@@ -37,7 +38,7 @@ export const SELF_BIAS_RENAMES = {
  * The self-bias resistor for a target current and/or the current a given resistor sets, with
  * gm, gos and the common-source gain into an optional drain load.
  */
-export async function estimateSelfBias({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function estimateSelfBias({ actor, input }: { actor: Actor | null; input: unknown }): Promise<SelfBiasEstimateJson> {
   requirePermission(actor, 'estimates:use');
   const body = SelfBiasRequest.parse(input);
   const stored = body.serial !== undefined ? await loadPartModel(getDb(), body.serial) : null;
