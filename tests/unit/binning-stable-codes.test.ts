@@ -22,10 +22,15 @@ describe('withStableBinCodes', () => {
     const draft: BinPlan = { axes: [{ quantity: 'idss', edges: { kind: 'explicit', edges: [2e-3, 3e-3, 4e-3, 6e-3] } }, v1.axes[1]] };
     const v2 = withStableBinCodes(draft, earlierOf(v1), 2);
     const old = new Map(binCatalogue(v1).map((e) => [e.code, e.ranges]));
+    let kept = 0;
     for (const e of binCatalogue(v2)) {
       const before = old.get(e.code);
-      if (before && !e.isHold) expect(e.ranges).toEqual(before);
+      if (!before || e.isHold) continue;
+      expect(e.ranges).toEqual(before);
+      kept++;
     }
+    // Some codes of version 1 carry over, so the comparison above ran.
+    expect(kept).toBeGreaterThan(0);
     const codes = binCatalogue(v2).map((e) => e.code);
     expect(new Set(codes).size).toBe(codes.length);
     // The unchanged 4–6 mA column keeps its old codes although its position moved (I02 → I03).

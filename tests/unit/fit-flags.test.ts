@@ -33,7 +33,8 @@ describe('flags', () => {
     expect(r.needsReview).toBe(true);
     const inside = fitCurveFamily(withLambda(0.45), { vdsTestV: 10, extended: 'never' });
     expect(inside.flags).toEqual([]);
-    if (inside.status === 'fitted') expect(inside.parameters.lambdaPerV.value).toBeCloseTo(0.45, 6);
+    if (inside.status !== 'fitted') throw new Error(`LAMBDA = 0.45 /V was not fitted: ${inside.status}`);
+    expect(inside.parameters.lambdaPerV.value).toBeCloseTo(0.45, 6);
   });
   it('too_few_curves: only 2 VGS steps', () => {
     expect(codes({ curves: medium.curves.slice(0, 2) })).toContain('too_few_curves');

@@ -1,10 +1,11 @@
 /**
  * fitCurveFamily against Debian ngspice (`/usr/bin/ngspice -b`): the netlists in
  * tests/fixtures/ngspice/ carry known NJF/PJF .model cards; the committed .dat files are
- * their output, regenerated and compared here whenever ngspice is installed.
+ * their output, regenerated and compared here. Without ngspice the file fails with the
+ * command that installs it (apt-get install -y ngspice).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -16,10 +17,10 @@ import {
   NGSPICE_DIR,
   fixtureNames,
   maxCurrentA,
-  ngspiceAvailable,
   parseWrdata,
   readCommittedFamily,
   readNetlistTruth,
+  requireNgspice,
   runNgspice,
   withNoise,
 } from '../fixtures/ngspice/ngspice-fixtures.ts';
@@ -29,13 +30,15 @@ const SERIES = ['njf-series', 'pjf-series'];
 const fresh = new Map<string, string>();
 
 beforeAll(() => {
-  if (!ngspiceAvailable()) return;
+  requireNgspice();
   for (const name of fixtureNames()) fresh.set(name, runNgspice(name));
 });
 
+/** The family from this run's ngspice output. */
 function family(name: string): CurveFamily {
   const text = fresh.get(name);
-  return text ? parseWrdata(text, readNetlistTruth(name).channel) : readCommittedFamily(name);
+  if (!text) throw new Error(`no fresh ngspice output for ${name}`);
+  return parseWrdata(text, readNetlistTruth(name).channel);
 }
 
 function fitted(f: CurveFamily, vdsTestV = 10): FittedResult {
@@ -47,8 +50,7 @@ function fitted(f: CurveFamily, vdsTestV = 10): FittedResult {
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
 describe('committed ngspice data', () => {
-  it.each(fixtureNames())('%s.dat matches a fresh ngspice run (when ngspice is installed)', (name) => {
-    if (!ngspiceAvailable()) return; // committed data still drives the fits below
+  it.each(fixtureNames())('%s.dat matches a fresh ngspice run', (name) => {
     const committed = readCommittedFamily(name);
     const regenerated = family(name);
     expect(regenerated.curves.length).toBe(committed.curves.length);
@@ -153,7 +155,6 @@ describe('breakdown and self-heating (ngspice netlists with a gate-drain zener, 
 
 describe('model card back into ngspice reproduces the curves (source: ngspice)', () => {
   it.each(['njf-series', 'pjf-medium'])('%s', (name) => {
-    if (!existsSync(NGSPICE_BIN)) return;
     const { channel } = readNetlistTruth(name);
     const r = fitted(family(name));
     const card = formatModelCard({
@@ -180,6 +181,7 @@ describe('model card back into ngspice reproduces the curves (source: ngspice)',
       const again = parseWrdata(readFileSync(join(dir, 'card.dat'), 'utf8'), channel);
       const before = family(name);
       const idss = maxCurrentA(before);
+      expect(again.curves.length).toBe(before.curves.length);
       again.curves.forEach((c, i) =>
         c.points.idA.forEach((id, k) => expect(Math.abs(id - before.curves[i].points.idA[k])).toBeLessThan(1e-4 * idss)),
       );

@@ -22,20 +22,25 @@ describe.each(cases)('$name, noise $noise of IDSS', ({ name, noise }) => {
   it.each(['never', 'always'] as const)('extended=%s: same parameters, errors and iterations', (extended) => {
     const compressed = fitCurveFamily(family, { vdsTestV: 10, extended, solverRows: 'compressed' });
     const full = fitCurveFamily(family, { vdsTestV: 10, extended, solverRows: 'full' });
-    expect(compressed.status).toBe(full.status);
-    if (compressed.status !== 'fitted' || full.status !== 'fitted') return;
+    // Every committed family fits in both modes; a failure to fit is a failure here.
+    if (compressed.status !== 'fitted' || full.status !== 'fitted') {
+      throw new Error(`${name}: not fitted (compressed: ${compressed.status}, full: ${full.status})`);
+    }
     expect(compressed.model).toBe(full.model);
     // On clean data the last steps move the SSE by amounts at rounding level, where the two
-    // hand-offs (JᵀJ summed in another order) may take a different number of them; the
-    // parameters still agree. With noise every step is decided well above rounding.
-    if (noise) expect(compressed.quality.iterations).toBe(full.quality.iterations);
+    // hand-offs (JᵀJ summed in another order) may take a different number of them (two more
+    // on pjf-medium); the parameters still agree. With noise every step is decided well
+    // above rounding, so the counts are equal.
+    expect(Math.abs(compressed.quality.iterations - full.quality.iterations)).toBeLessThanOrEqual(noise ? 0 : 2);
     for (const key of ['vtoV', 'betaAPerV2', 'lambdaPerV', 'rsOhm', 'rdOhm'] as const) {
       const a = compressed.parameters[key];
       const b = full.parameters[key];
       // Clean data: relative to the value, with a floor of 1 Ω for RS/RD (often near 0).
       const scale = noise ? Math.max(b.standardError, 1e-12) : Math.max(Math.abs(b.value), key === 'rsOhm' || key === 'rdOhm' ? 1 : 1e-3);
       expect(Math.abs(a.value - b.value), key).toBeLessThanOrEqual(1e-6 * scale);
-      if (noise && Number.isFinite(b.standardError)) expect(Math.abs(a.standardError - b.standardError), key).toBeLessThanOrEqual(1e-6 * b.standardError);
+      // Standard errors are finite in every case (0 for RS and RD when the level-1 model holds them at 0).
+      expect(Number.isFinite(b.standardError), key).toBe(true);
+      expect(Math.abs(a.standardError - b.standardError), key).toBeLessThanOrEqual(1e-6 * b.standardError);
     }
     expect(compressed.flags.map((f) => f.code)).toEqual(full.flags.map((f) => f.code));
   });

@@ -1,14 +1,15 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import {
   evaluateAtOperatingPoint,
   selfBiasDrainCurrentA,
 } from '~/core/match/evaluate-at-operating-point';
 import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
 import type { JfetParams } from '~/core/jfet-model';
+import { requireNgspice } from '../fixtures/ngspice/ngspice-fixtures.ts';
 
 const part = (idssA: number, vtoV: number, extra: Partial<JfetParams> = {}): JfetParams => ({
   vtoV,
@@ -79,8 +80,6 @@ describe('evaluateAtOperatingPoint refuses points a part cannot run at', () => {
   });
 });
 
-const hasNgspice = existsSync('/usr/bin/ngspice');
-
 function ngspiceOp(netlist: string, nodes: string[]): Record<string, number> {
   const dir = mkdtempSync(join(tmpdir(), 'sluice-match-'));
   const file = join(dir, 'c.cir');
@@ -99,7 +98,8 @@ function ngspiceOp(netlist: string, nodes: string[]): Record<string, number> {
 const card = (name: string, p: JfetParams) =>
   `.model ${name} NJF (VTO=${p.vtoV} BETA=${p.betaAPerV2} LAMBDA=${p.lambdaPerV} RS=${p.rsOhm} RD=${p.rdOhm})`;
 
-describe.skipIf(!hasNgspice)('operating figures and the cascode condition against ngspice', () => {
+describe('operating figures and the cascode condition against ngspice', () => {
+  beforeAll(requireNgspice);
   it('VGS at a forced current, with fitted RS and RD', () => {
     const p: JfetParams = { vtoV: -2.2, betaAPerV2: 1.1e-3, lambdaPerV: 0.015, rsOhm: 35, rdOhm: 20 };
     const f = figures(p, { kind: 'current', idA: 1.5e-3, vdsV: 10 });

@@ -29,7 +29,7 @@ describe('transfer sweeps feed the operating-point figures', () => {
   it('reads VGS at 1 mA from the sweep at its own VDS, the model elsewhere', () => {
     const fit = fitCurveFamily(transferFamily(10), { vdsTestV: 10 });
     expect(fit.status).toBe('fitted');
-    if (fit.status !== 'fitted') return;
+    if (fit.status !== 'fitted') throw new Error(`not fitted: ${fit.status}`);
     const p = fit.parameters;
     const basis = {
       params: { vtoV: p.vtoV.value, betaAPerV2: p.betaAPerV2.value, lambdaPerV: p.lambdaPerV.value, rsOhm: p.rsOhm.value, rdOhm: p.rdOhm.value },
@@ -39,7 +39,7 @@ describe('transfer sweeps feed the operating-point figures', () => {
     const truth = V0 + Math.pow(1e-3 / (K * (1 + LAMBDA * 10)), 1 / M);
     const at10 = partOperatingFigures(basis, { kind: 'current', idA: 1e-3, vdsV: 10 });
     expect(at10.usable).toBe(true);
-    if (!at10.usable) return;
+    if (!at10.usable) throw new Error(`not usable: ${at10.code}`);
     expect(at10.figures.source).toBe('measured');
     expect(Math.abs(at10.figures.vgsV - truth)).toBeLessThan(0.5e-3);
     expect(Math.abs(at10.figures.vgsV - truth)).toBeLessThanOrEqual(2 * at10.figures.vgsSigmaV + 1e-9);
