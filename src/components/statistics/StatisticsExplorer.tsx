@@ -1,7 +1,5 @@
 import { useMemo, useState, type CSSProperties, type FormEvent } from 'react';
-import type { StatisticsReport } from '~/lib/server/services/statistics/get';
-import type { StatisticsOptions } from '~/lib/server/services/statistics/list-options';
-import type { TypeStatistics } from '~/lib/server/services/statistics/compute-report';
+import type { StatisticsOptions, StatisticsReport, TypeStatistics } from '~/contracts/statistics';
 import { formatDate } from '~/core/units/format-date';
 import { binShareGrid, type BinShareGrid } from '~/core/statistics/bin-share-grid';
 import { vdsInDatasheetSign } from '~/core/units/datasheet-sign';

@@ -1,4 +1,5 @@
 import { and, asc, eq, gte, inArray, lte, type SQL } from 'drizzle-orm';
+import type { StatisticsReport } from '~/contracts/statistics';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -8,21 +9,9 @@ import {
   type StatisticsPartRow,
   type StatisticsTypeInfo,
   type TrendLotInfo,
-  type TypeStatistics,
 } from './compute-report';
 import { StatisticsQuery } from './schemas';
 
-export interface StatisticsReport {
-  selection: {
-    device_type: string | null;
-    lot: string | null;
-    from: string | null;
-    to: string | null;
-    date_basis: 'fit' | 'lot';
-  };
-  /** One entry per device type in the selection (figures of different types are never pooled). */
-  groups: TypeStatistics[];
-}
 
 async function findDeviceType(db: DbOrTx, ref: string) {
   const byName = await db.select().from(schema.deviceType).where(eq(schema.deviceType.name, ref)).limit(1);

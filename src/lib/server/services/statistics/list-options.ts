@@ -1,11 +1,8 @@
 import { asc, count, desc, eq } from 'drizzle-orm';
+import type { StatisticsOptions } from '~/contracts/statistics';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 
-export interface StatisticsOptions {
-  device_types: { id: number; name: string; channel: 'n' | 'p' }[];
-  lots: { id: number; code: string; device_type: string; supplier: string; received_at: string; part_count: number }[];
-}
 
 /** What the statistics page offers to choose from: device types and lots, newest lots first. */
 export async function listStatisticsOptions({ actor }: { actor: Actor | null }): Promise<StatisticsOptions> {

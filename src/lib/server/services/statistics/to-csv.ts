@@ -1,5 +1,5 @@
 import { FIGURES } from './compute-report';
-import type { StatisticsReport } from './get';
+import type { StatisticsReport } from '~/contracts/statistics';
 import type { StatisticsTable } from './schemas';
 import { writeCsv as csv } from '~/core/csv/write-csv';
 
