@@ -12,7 +12,8 @@
  * is reused. The first request loads the candidate cache and is reported apart; then three
  * uncounted warm-ups, then the counted runs. Prints median and p95.
  *
- * Options: --runs N (default 30), --parts N (default 100000), --keep (leave the database).
+ * Options: --runs N (default 30), --parts N (default 100000), --keep (leave the database),
+ * --reuse (time against the database a --keep run left, without seeding it again).
  */
 import {
   databaseUrl, dropDatabase, ensureDatabases, ensurePostgresInstalled, ensureSecrets, log, startCluster,
@@ -52,7 +53,8 @@ const arg = (name: string, fallback: number) => {
 };
 const RUNS = arg('runs', 30);
 const PARTS = arg('parts', 100_000);
-const KEEP = process.argv.includes('--keep');
+const REUSE = process.argv.includes('--reuse');
+const KEEP = REUSE || process.argv.includes('--keep');
 const DB = 'sluice_bench_match';
 
 function mulberry32(seed: number) {
@@ -67,7 +69,7 @@ function mulberry32(seed: number) {
 const secrets = ensureSecrets() as Record<string, string>;
 const bin = ensurePostgresInstalled();
 await startCluster(bin);
-dropDatabase(bin, DB);
+if (!REUSE) dropDatabase(bin, DB);
 ensureDatabases(bin, secrets.SLUICE_DB_PASSWORD, [DB]);
 const url = databaseUrl(secrets.SLUICE_DB_PASSWORD, DB);
 process.env.DATABASE_URL = url;
@@ -75,6 +77,9 @@ process.env.BETTER_AUTH_SECRET ??= secrets.BETTER_AUTH_SECRET;
 
 const pool = new pg.Pool({ connectionString: url, max: 2 });
 await migrate(drizzle(pool), { migrationsFolder: 'drizzle' });
+const seeded = REUSE && Number((await pool.query(`SELECT count(*) AS n FROM part WHERE status = 'in_stock'`)).rows[0].n) === PARTS;
+if (REUSE && !seeded) log('--reuse: the database does not hold the stock asked for; seeding it');
+if (!seeded) {
 
 log(`inserting ${PARTS} in-stock parts with fits`);
 const t0 = performance.now();
@@ -133,6 +138,7 @@ await q('UPDATE part SET current_fit_id = fit.id FROM fit WHERE fit.part_id = pa
 await q('VACUUM ANALYZE part');
 await q('VACUUM ANALYZE fit');
 log(`inserted in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+}
 
 const { createMatchProposal } = await import('../src/lib/server/services/match/create-proposal');
 const { readStockVersion } = await import('../src/lib/server/services/match/candidate-cache');

@@ -106,6 +106,13 @@ export function chooseSymmetricSets(
   }
   // The guard only ever adds to ΔVGS, so a set of cost ≤ θ still lies inside the VGS window.
   const guard = matchVgs ? DVGS_GUARD_SIGMAS : 0;
+  // And it narrows the window: a pair (i, j) has guarded ΔVGS ≥ |V_j − V_i| + guard·σ_i, so
+  // with VGS as the key, part i's partners lie within gap − guard·σ_i of it.
+  let shrink: Float64Array | null = null;
+  if (guard > 0 && key === stock.vgsV) {
+    shrink = new Float64Array(n);
+    for (let r = 0; r < n; r++) shrink[r] = guard * S[r]!;
+  }
   const term = (m: number, t: number) => (t === Infinity || m <= 0 ? 0 : t > 0 ? m / t : Infinity);
   const { maxGmMismatch: maxG, maxIdssMismatch: maxI } = tol;
 
@@ -171,8 +178,8 @@ export function chooseSymmetricSets(
     const flat = new FlatSets(setSize);
     const capped =
       setSize === 2
-        ? scanPairs(K, gap, costCap, pairCost, flat)
-        : scanQuads(K, gap, costCap, pairCost, setCost, flat);
+        ? scanPairs(K, gap, shrink, costCap, pairCost, flat)
+        : scanQuads(K, gap, shrink, costCap, pairCost, setCost, flat);
     const setCount = flat.size;
     const members = flat.members;
     const costs = flat.costs;
@@ -393,10 +400,14 @@ function quickSelect(a: number[], k: number): number {
   return a[k]!;
 }
 
-/** Every valid pair of cost ≤ costCap whose key gap is ≤ gap; returns false (never capped). */
+/**
+ * Every valid pair of cost ≤ costCap whose key gap is ≤ gap (less `shrink[i]` for pairs that
+ * start at sorted position i, when given); returns false (never capped).
+ */
 function scanPairs(
   K: Float64Array,
   gap: number,
+  shrink: Float64Array | null,
   costCap: number,
   pairCost: (i: number, j: number) => number,
   out: FlatSets,
@@ -404,7 +415,9 @@ function scanPairs(
   const n = K.length;
   const m = [0, 0];
   for (let i = 0; i < n; i++) {
-    const limit = K[i]! + gap;
+    const reach = shrink ? gap - shrink[i]! : gap;
+    if (reach < 0) continue;
+    const limit = K[i]! + reach;
     for (let j = i + 1; j < n && K[j]! <= limit; j++) {
       const c = pairCost(i, j);
       if (c <= costCap) {
@@ -421,6 +434,7 @@ function scanPairs(
 function scanQuads(
   K: Float64Array,
   gap: number,
+  shrink: Float64Array | null,
   costCap: number,
   pairCost: (i: number, j: number) => number,
   setCost: (m: readonly number[]) => number,
@@ -428,7 +442,7 @@ function scanQuads(
 ): boolean {
   // Every pair inside a quad of cost ≤ θ also costs ≤ θ, so quads are 4-cliques of that graph.
   const pairs = new FlatSets(2);
-  scanPairs(K, gap, costCap, pairCost, pairs);
+  scanPairs(K, gap, shrink, costCap, pairCost, pairs);
   const n = K.length;
   const after = new Map<number, number[]>();
   const isEdge = new Set<number>();

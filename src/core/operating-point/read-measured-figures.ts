@@ -275,27 +275,28 @@ function powerLawReading(n: number, k: number, idA: number): boolean {
   let dvdA = 0;
   let dvdB = 0;
   let v0 = 0;
-  const la = Math.log(ia);
-  const lb = Math.log(ib);
-  const l = Math.log(idA);
+  // With y = I^(1/m): r = y/ya and R = yb/ya, so each exponent costs two expm1 and the pair
+  // of logarithms is shared.
+  const lr = Math.log(idA / ia);
+  const lR = Math.log(ib / ia);
   for (let j = 0; j < 2; j++) {
     const m = j === 0 ? m0 : m1;
     if (j === 1 && m1 === m0) {
       plSpread = 0;
       break;
     }
-    const ya = Math.exp(la / m);
-    const yb = Math.exp(lb / m);
-    const y = Math.exp(l / m);
-    const dy = yb - ya;
-    const vj = sv[a]! + (h * (y - ya)) / dy;
+    const rm1 = Math.expm1(lr / m);
+    const Rm1 = Math.expm1(lR / m);
+    const r = 1 + rm1;
+    const vj = sv[a]! + (h * rm1) / Rm1;
     if (j === 0) v0 = vj;
     else plSpread = Math.abs(v0 - vj) / 2;
     v += vj;
-    gm += (m * (idA / y) * dy) / h;
+    gm += (m * idA * Rm1) / (r * h);
     // ∂v/∂I at each anchor: ∂v/∂y · ∂y/∂I, with ∂y/∂I = y/(m·I).
-    dvdA += ((h * (y - yb)) / (dy * dy)) * (ya / (m * ia));
-    dvdB += ((-h * (y - ya)) / (dy * dy)) * (yb / (m * ib));
+    const w = h / (m * Rm1 * Rm1);
+    dvdA += (w * (rm1 - Rm1)) / ia;
+    dvdB -= (w * rm1 * (1 + Rm1)) / ib;
   }
   // Mean of the two readings (one when both exponents are the same).
   const readings = m1 === m0 ? 1 : 2;
