@@ -5,7 +5,7 @@ import { DbEnvSchema } from '~/db/db-config';
  * Process configuration, parsed once. Every variable has a safe default for a local install;
  * `scripts/start.mjs` and `scripts/test.mjs` set the secret and the database URL.
  */
-const EnvSchema = z.object({
+export const EnvSchema = z.object({
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().positive().default(4321),
   SLUICE_PUBLIC_URL: z.string().url().optional(),
