@@ -182,7 +182,7 @@ export const ROUTE_RULES: readonly RouteRule[] = [
   { pattern: /^\/api\/me\/?$/, need: 'signed-in' },
   { pattern: /^\/api\/auth\//, need: 'public' },
   { pattern: /^\/api\/health\/?$/, need: 'public' },
-  // Served once the OpenAPI document lands (issue 14, item 3); no route file yet.
+  // The API's description: no data in it, and stations read it before they hold a token.
   { pattern: /^\/api\/openapi\.json$/, need: 'public' },
   { pattern: /^\/(_astro|fonts|favicon)/, need: 'public' },
   { pattern: /^\/(admin\/users|api\/admin\/users)/, need: 'users:manage' },

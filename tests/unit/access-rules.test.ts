@@ -7,7 +7,6 @@ import { routeFiles } from '../helpers/route-files';
 /** Rules that serve no route file, each with its reason. */
 const RULES_WITHOUT_FILES: Record<string, string> = {
   [String(/^\/(_astro|fonts|favicon)/)]: 'built assets served by the adapter, not route files',
-  [String(/^\/api\/openapi\.json$/)]: 'the OpenAPI document planned by issue 14 item 3',
 };
 
 const files = routeFiles();
