@@ -21,8 +21,9 @@ import {
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import pg from 'pg';
-import { prepareCurves } from '../src/core/fit/prepared-curves';
-import { buildOperatingTable, operatingTableToBytes } from '../src/core/operating-point/operating-table';
+import { prepareCurves } from '~/core/fit/prepared-curves';
+import { buildOperatingTable, operatingTableToBytes } from '~/core/operating-point/operating-table';
+import { seededRandom } from '~/core/random/seeded-random';
 
 /** A family of a power-law part, N-equivalent: ID = K·(VGS − VTO)^m·(1 + λ·VDS) in saturation. */
 function powerLawTable(vtoV: number, idssA: number, lambda: number, m: number): string {
@@ -57,15 +58,6 @@ const REUSE = process.argv.includes('--reuse');
 const KEEP = REUSE || process.argv.includes('--keep');
 const DB = 'sluice_bench_match';
 
-function mulberry32(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 const secrets = ensureSecrets() as Record<string, string>;
 const bin = ensurePostgresInstalled();
 await startCluster(bin);
@@ -92,7 +84,7 @@ const locations = (await q(`INSERT INTO location (name, barcode) SELECT 'Bench d
 const plan = (await q(`INSERT INTO bin_plan (device_type_id, version, name, definition, is_active) VALUES ($1, 1, 'bench', '{}', true) RETURNING id`, [type])).rows[0].id as number;
 const bins = (await q(`INSERT INTO bin (bin_plan_id, code, label, ranges) SELECT $1, 'B' || g, 'bench bin ' || g, '[]' FROM generate_series(1, 12) g RETURNING id`, [plan])).rows.map((r) => r.id as number);
 
-const rand = mulberry32(20261202);
+const rand = seededRandom(20261202);
 const CHUNK = 10_000;
 for (let start = 0; start < PARTS; start += CHUNK) {
   const n = Math.min(CHUNK, PARTS - start);
@@ -140,9 +132,9 @@ await q('VACUUM ANALYZE fit');
 log(`inserted in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 }
 
-const { createMatchProposal } = await import('../src/lib/server/services/match/create-proposal');
-const { readStockVersion } = await import('../src/lib/server/services/match/candidate-cache');
-const { closeDb } = await import('../src/db/client');
+const { createMatchProposal } = await import('~/lib/server/services/match/create-proposal');
+const { readStockVersion } = await import('~/lib/server/services/match/candidate-cache');
+const { closeDb } = await import('~/db/client');
 const actor = { userId: 'bench-designer', stationId: null, label: 'bench', permissions: ['match:request', 'match:reserve'] as const };
 const request = (r: number) => ({
   device_type: 'BENCH-N',
