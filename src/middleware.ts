@@ -2,7 +2,7 @@ import type { APIContext, MiddlewareNext } from 'astro';
 import { defineMiddleware } from 'astro:middleware';
 import { STATION_GRANTS, allows, ruleFor } from './lib/access';
 import { HTTP_METHODS, matchRouteFile, routeOfFile } from './lib/route-files';
-import { json, toResponse } from './lib/server/errors';
+import { AppError, toResponse } from './lib/server/errors';
 import { stationFromBearer, userFromHeaders } from './lib/server/identity';
 
 /**
@@ -16,7 +16,7 @@ export const onRequest = defineMiddleware(async (context, next) => {
   if (!isApi) return guard(context, next);
   // Every API answer is JSON `{ error: { code, message } }`, whatever went wrong and where.
   if (/%00|\u0000/i.test(context.url.pathname + context.url.search)) {
-    return json({ error: { code: 'invalid_input', message: 'The address holds a NUL character (%00), which no Sluice route takes. Remove it and try again.' } }, 400);
+    return toResponse(new AppError('nul_in_address'));
   }
   let res: Response;
   try {
@@ -42,7 +42,7 @@ const guard = async (context: APIContext, next: MiddlewareNext): Promise<Respons
   if (isApi && bearer?.startsWith('Bearer ')) {
     context.locals.station = await stationFromBearer(bearer);
     if (!context.locals.station) {
-      return json({ error: { code: 'unauthenticated', message: 'The station token is unknown or revoked.' } }, 401);
+      return toResponse(new AppError('station_token_unknown'));
     }
   } else {
     context.locals.user = await userFromHeaders(context.request.headers);
@@ -53,13 +53,13 @@ const guard = async (context: APIContext, next: MiddlewareNext): Promise<Respons
 
   const grants = context.locals.user?.permissions ?? (context.locals.station ? STATION_GRANTS : null);
   if (!grants) {
-    if (isApi) return json({ error: { code: 'unauthenticated', message: 'Sign in first: this needs an account.' } }, 401);
+    if (isApi) return toResponse(new AppError('sign_in_required'));
     return context.redirect(`/sign-in?next=${encodeURIComponent(pathname + context.url.search)}`);
   }
   if (!allows(need, grants)) {
     const needText = typeof need === 'string' ? need : need.anyOf.join(' or ');
     if (isApi) {
-      return json({ error: { code: 'forbidden', message: `Your roles do not allow this (it needs ${needText}).`, missing: needText } }, 403);
+      return toResponse(new AppError('permission_missing', { need: needText }, { missing: needText }));
     }
     return context.rewrite(new Request(new URL(`/not-for-your-role?need=${encodeURIComponent(needText)}`, context.url), { headers: context.request.headers }));
   }
@@ -76,17 +76,15 @@ async function apiErrorAsJson(method: string, pathname: string, res: Response): 
     const mod = await API_MODULES[(route as (typeof API_ROUTES)[number]).key]();
     const methods = HTTP_METHODS.filter((m) => typeof mod[m] === 'function');
     if (!methods.includes(method as (typeof methods)[number]) && !methods.includes('ALL')) {
-      return json(
-        { error: { code: 'method_not_allowed', message: `${route.route} does not take ${method}; it takes ${methods.join(', ')}.`, allow: methods } },
-        405,
-        { allow: methods.join(', ') },
-      );
+      return toResponse(new AppError('method_not_allowed', { route: route.route, method, allowed: methods }, { allow: methods }), {
+        headers: { allow: methods.join(', ') },
+      });
     }
   }
   if (res.status === 404) {
-    return json({ error: { code: 'not_found', message: `There is no API route ${method} ${pathname}. The routes are listed in docs/api-sweeps.md.` } }, 404);
+    return toResponse(new AppError('route_not_found', { method, path: pathname }));
   }
   const text = (await res.text()).slice(0, 300);
-  const code = res.status === 403 ? 'forbidden' : res.status === 413 ? 'too_large' : res.status >= 500 ? 'internal' : 'invalid_input';
-  return json({ error: { code, message: text || `The request was refused (${res.status}).` } }, res.status);
+  const code = res.status === 403 ? 'request_refused_forbidden' : res.status === 413 ? 'request_refused_too_large' : res.status >= 500 ? 'server_failed' : 'request_refused';
+  return toResponse(new AppError(code, { text, status: res.status }), { status: res.status });
 }

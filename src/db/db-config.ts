@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { AppError } from '~/core/errors';
 
 /**
  * The two settings of the database client. src/db sits below src/lib and reads them itself;
@@ -20,7 +21,7 @@ export function dbConfig(env: Record<string, string | undefined> = process.env):
   const parsed = DbEnvSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
-    throw new Error(`Sluice configuration is invalid:\n${lines.join('\n')}`);
+    throw new AppError('configuration_invalid', { lines });
   }
   return { databaseUrl: parsed.data.DATABASE_URL, poolSize: parsed.data.SLUICE_DB_POOL_SIZE };
 }

@@ -1,3 +1,4 @@
+import { AppError } from '~/core/errors';
 import { getTableColumns, sql, type SQL } from 'drizzle-orm';
 import type { PgTable } from 'drizzle-orm/pg-core';
 import type { DbOrTx } from './client';
@@ -20,13 +21,13 @@ export function jsonRecordset<T extends PgTable>(table: T, rows: Partial<T['$inf
   const columns = columnsOf(table);
   const first = rows[0] as Record<string, unknown>;
   const keys = Object.keys(first).filter((k) => first[k] !== undefined);
-  for (const k of keys) if (!columns[k]) throw new Error(`jsonRecordset: ${k} is not a column of this table`);
+  for (const k of keys) if (!columns[k]) throw new AppError('json_rows_bad_column', { helper: 'jsonRecordset', column: k });
   const parts: string[] = [];
   for (const row of rows as Record<string, unknown>[]) {
     const fields: string[] = [];
     for (const k of keys) fields.push(`${JSON.stringify(columns[k].name)}:${valueAsJson(row[k])}`);
     for (const k of Object.keys(row)) {
-      if (row[k] !== undefined && !keys.includes(k)) throw new Error(`jsonRecordset: every row must set the same keys; ${k} is not set in the first`);
+      if (row[k] !== undefined && !keys.includes(k)) throw new AppError('json_rows_uneven_keys', { column: k });
     }
     parts.push(`{${fields.join(',')}}`);
   }
@@ -48,7 +49,7 @@ export async function insertRowsAsJson<T extends PgTable, K extends keyof T['$in
 ): Promise<Pick<T['$inferSelect'], K>[]> {
   if (rows.length === 0) return [];
   const columns = columnsOf(table);
-  for (const k of returning) if (!columns[k]) throw new Error(`insertRowsAsJson: ${k} is not a column of this table`);
+  for (const k of returning) if (!columns[k]) throw new AppError('json_rows_bad_column', { helper: 'insertRowsAsJson', column: k });
   const { from, names } = jsonRecordset(table, rows);
   const list = sql.raw(names.join(', '));
   const returned = returning.length ? sql.raw(` returning ${returning.map((k) => `"${columns[k].name}" as "${k}"`).join(', ')}`) : sql``;

@@ -1,4 +1,5 @@
 import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
+import { AppError } from '~/core/errors';
 import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '~/core/estimates/defaults-from-part';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat, formatMeasuredNumber, formatPlain } from '~/core/units/format-quantity';
@@ -328,7 +329,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
     if ('vp_v' in part) return estimateDefaultsForPart({ idssA: part.idss_a, vpV: part.vp_v }).vgs0V;
     if (stored && stored.serial === part.serial) return estimateDefaultsForPart(stored).vgs0V;
     const p = await apiFetch<PartDetailJson>(`/api/parts/${encodeURIComponent(part.serial)}`);
-    if (p.idss_a === null || p.vp_v === null) throw new Error(`${part.serial} has no fit, so VP/2 is unknown; choose a fixed VGS0.`);
+    if (p.idss_a === null || p.vp_v === null) throw new AppError('estimate_vgs0_unknown', { serial: part.serial });
     return estimateDefaultsForPart({ idssA: p.idss_a, vpV: p.vp_v }).vgs0V;
   }
 

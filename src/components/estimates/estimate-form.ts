@@ -2,6 +2,7 @@
  * The estimates form: its fields (in the units a bench person types), how they become the SI
  * request bodies of /api/estimates/*, and how the server's field names map back to inputs.
  */
+import { AppError } from '~/core/errors';
 
 export type PartSource = 'datasheet' | 'part' | 'set';
 /** 'half_vp': VGS0 = VP/2 of each part (a quarter of its IDSS); 'vgs0': one fixed VGS0; 'rs': a self-bias resistor. */
@@ -98,12 +99,15 @@ export const FIELD_LABELS: Record<FormField, string> = {
 
 export type FieldErrors = Partial<Record<FormField, string>>;
 
-export class FormInputError extends Error {
+/** Inputs the form marks; the message lists them, or is the server's when it refused them. */
+export class FormInputError extends AppError<'estimate_form_invalid'> {
   constructor(
     readonly fields: FieldErrors,
     message?: string,
   ) {
-    super(message ?? `Check the marked inputs: ${Object.entries(fields).map(([f, m]) => `${FIELD_LABELS[f as FormField]} — ${m}`).join('; ')}.`);
+    super('estimate_form_invalid', { problems: Object.entries(fields).map(([f, m]) => `${FIELD_LABELS[f as FormField]} — ${m}`) });
+    if (message) this.message = message;
+    this.name = 'FormInputError';
   }
 }
 

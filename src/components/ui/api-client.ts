@@ -1,16 +1,19 @@
 import { useCallback, useEffect, useState } from 'react';
+import { AppError } from '~/core/errors';
 
 /** The error body every Sluice API route returns. */
 export interface ApiErrorBody {
   error: { code: string; message: string; [k: string]: unknown };
 }
 
-export class ApiError extends Error {
+/** The API's refusal as the island sees it: the server's message, status and body. */
+export class ApiError extends AppError<'api_refused'> {
   constructor(
     readonly status: number,
     readonly body: ApiErrorBody | null,
   ) {
-    super(body?.error?.message ?? `The server answered ${status}.`);
+    super('api_refused', { status, message: body?.error?.message });
+    this.name = 'ApiError';
   }
 }
 

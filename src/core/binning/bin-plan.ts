@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { AppError } from '../errors';
 import { describeIssue } from '../field-path-words';
 
 /**
@@ -78,11 +79,19 @@ export interface BinPlanIssue {
   message: string;
 }
 
-export class BinPlanError extends Error {
-  readonly code = 'bin_plan_invalid';
-  constructor(readonly issues: BinPlanIssue[]) {
+/**
+ * A plan that breaks the rules. The message names each field in words, relative to the plan;
+ * `fields` gives each path for programs, under `at` (where the plan sits in its request).
+ */
+export class BinPlanError extends AppError<'bin_plan_invalid'> {
+  constructor(
+    readonly issues: BinPlanIssue[],
+    at: readonly (string | number)[] = [],
+  ) {
     super(
-      `The bin plan is not valid: ${issues.map((i) => describeIssue(i.path, i.message)).join('; ')}. Correct the plan and save it again.`,
+      'bin_plan_invalid',
+      { problems: issues.map((i) => describeIssue(i.path, i.message)) },
+      { fields: issues.map((i) => ({ field: [...at, ...i.path].join('.'), message: i.message })) },
     );
     this.name = 'BinPlanError';
   }
@@ -143,8 +152,11 @@ export function binAxisIssues(axis: BinAxis, path: (string | number)[] = []): Bi
   return issues;
 }
 
-/** Parses untrusted input (an admin's form, a stored JSON plan) into a BinPlan or throws BinPlanError. */
-export function parseBinPlan(input: unknown): BinPlan {
+/**
+ * Parses untrusted input (an admin's form, a stored JSON plan) into a BinPlan or throws
+ * BinPlanError; `at` is the plan's path in the request, for the error's `fields`.
+ */
+export function parseBinPlan(input: unknown, at: readonly (string | number)[] = []): BinPlan {
   const result = BinPlan.safeParse(input);
   if (result.success) return result.data;
   // The shape checks and binPlanIssues can both report one field; keep the first per field.
@@ -157,7 +169,7 @@ export function parseBinPlan(input: unknown): BinPlan {
     seen.add(key);
     issues.push({ path, message: i.message });
   }
-  throw new BinPlanError(issues);
+  throw new BinPlanError(issues, at);
 }
 
 /** Throws BinPlanError when a plan built in code breaks the rules. */

@@ -1,3 +1,5 @@
+import { AppError } from '../errors';
+
 export interface EstimateInputIssue {
   /** Dotted path of the offending input field, e.g. "lo.amplitudeV". */
   field: string;
@@ -5,13 +7,17 @@ export interface EstimateInputIssue {
   message: string;
 }
 
-/** Inputs to a stage estimate were out of range. Names every field at fault. */
-export class EstimateInputError extends Error {
-  readonly code = 'estimate_input_invalid';
-  constructor(readonly issues: EstimateInputIssue[]) {
-    super(
-      `The stage estimate cannot be computed: ${issues.map((i) => `${i.field}: ${i.message}`).join('; ')}. Correct the inputs and try again.`,
-    );
+/**
+ * Inputs to a stage estimate were out of range. Names every field at fault; `fields` keeps the
+ * paths for programs. `problems` phrases each issue (by default "path: message"; a service
+ * that knows the request's own field names phrases them in words).
+ */
+export class EstimateInputError extends AppError<'estimate_input_invalid'> {
+  constructor(
+    readonly issues: EstimateInputIssue[],
+    problems: string[] = issues.map((i) => `${i.field}: ${i.message}`),
+  ) {
+    super('estimate_input_invalid', { problems }, { fields: issues.map((i) => ({ field: i.field, message: i.message })) });
     this.name = 'EstimateInputError';
   }
 }

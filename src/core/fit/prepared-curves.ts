@@ -1,3 +1,4 @@
+import { AppError, type ErrorParams } from '../errors';
 import type { CurveFamily } from './definitions.ts';
 
 /** One curve sorted by VDS, with the flat index of each point and whether it is fitted. */
@@ -10,8 +11,12 @@ export interface PreparedCurve {
   included: Uint8Array;
 }
 
-export class CurveFamilyShapeError extends Error {
-  readonly code = 'curve_family_shape';
+/** Curves no fit can read; a stored sweep this malformed is refused (422), not a server fault. */
+export class CurveFamilyShapeError extends AppError<'curve_family_shape'> {
+  constructor(params: ErrorParams<'curve_family_shape'>) {
+    super('curve_family_shape', params);
+    this.name = 'CurveFamilyShapeError';
+  }
 }
 
 /**
@@ -20,7 +25,7 @@ export class CurveFamilyShapeError extends Error {
  */
 export function prepareCurves(family: CurveFamily, excludedPoints: readonly number[] = []): PreparedCurve[] {
   if (!family || !Array.isArray(family.curves) || family.curves.length === 0) {
-    throw new CurveFamilyShapeError('The curve family has no curves; upload a sweep with at least one VGS step.');
+    throw new CurveFamilyShapeError({ problem: 'no_curves' });
   }
   const excluded = new Set(excludedPoints);
   // One buffer per column for the whole family, a view per curve: typed-array construction
@@ -35,9 +40,7 @@ export function prepareCurves(family: CurveFamily, excludedPoints: readonly numb
   return family.curves.map((curve, c) => {
     const { vdsV, idA } = curve.points;
     if (!Number.isFinite(curve.vgsV) || vdsV.length !== idA.length) {
-      throw new CurveFamilyShapeError(
-        `Curve ${c} has ${vdsV.length} VDS values and ${idA.length} ID values (or no VGS); each point needs both.`,
-      );
+      throw new CurveFamilyShapeError({ problem: 'unequal_columns', curve: c, vdsCount: vdsV.length, idCount: idA.length });
     }
     let sorted = true;
     for (let i = 1; i < vdsV.length && sorted; i++) sorted = vdsV[i] >= vdsV[i - 1];
@@ -57,7 +60,7 @@ export function prepareCurves(family: CurveFamily, excludedPoints: readonly numb
     for (let k = 0; k < n; k++) {
       const i = order ? order[k] : k;
       if (!Number.isFinite(vdsV[i]) || !Number.isFinite(idA[i])) {
-        throw new CurveFamilyShapeError(`Curve ${c}, point ${i} is not a finite number; fix or drop it before fitting.`);
+        throw new CurveFamilyShapeError({ problem: 'not_finite', curve: c, point: i });
       }
       prepared.vdsV[k] = vdsV[i];
       prepared.idA[k] = idA[i];

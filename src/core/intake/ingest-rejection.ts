@@ -1,3 +1,4 @@
+import { AppError, type AppErrorArgs } from '../errors';
 import { capLength, escapeForMessage, MAX_MESSAGE_LENGTH } from '../sweep-file';
 
 export type IngestRejectionCode =
@@ -15,12 +16,10 @@ export type IngestRejectionCode =
  * cannot take a sweep. The message may quote the file (a lot code, a type name): it is
  * escaped and capped like the parser's.
  */
-export class IngestRejection extends Error {
-  constructor(
-    readonly code: IngestRejectionCode,
-    message: string,
-  ) {
-    super(capLength(escapeForMessage(message), MAX_MESSAGE_LENGTH));
+export class IngestRejection<C extends IngestRejectionCode = IngestRejectionCode> extends AppError<C> {
+  constructor(code: C, ...args: AppErrorArgs<C>) {
+    super(code, ...args);
+    this.message = capLength(escapeForMessage(this.message), MAX_MESSAGE_LENGTH);
     this.name = 'IngestRejection';
   }
 }

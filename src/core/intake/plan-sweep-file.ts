@@ -75,24 +75,18 @@ export function readSweepForType<T extends DeviceTypeInfo>(input: {
   const known = [...typesByName.values()].map((t) => t.name).sort().join(', ') || 'none yet';
   if (!typeName) {
     parseSweepFile({ text, fileName, byteLength, ...(tags.channel ? { channel: tags.channel } : {}) });
-    throw new IngestRejection(
-      'no_device_type',
-      `${fileName}: no device type — the file has no "# device type:" line and the upload gave none. Tag the upload with one of the known types: ${known}.`,
-    );
+    throw new IngestRejection('no_device_type', { file: fileName, known });
   }
   const type = typesByName.get(typeName.toLowerCase());
   if (!type) {
-    throw new IngestRejection('unknown_device_type', `${fileName}: device type "${typeName}" is not known. Known types: ${known}. An admin adds types on the Device types page.`);
+    throw new IngestRejection('unknown_device_type', { file: fileName, typeName, known });
   }
   for (const [declared, where] of [
     [hints.channel, 'the file'],
     [tags.channel, 'the upload'],
   ] as const) {
     if (declared && declared !== type.channel) {
-      throw new IngestRejection(
-        'channel_conflict',
-        `${fileName}: ${where} says ${declared.toUpperCase()}-channel, but device type ${type.name} is ${type.channel.toUpperCase()}-channel. Correct the channel or the device type.`,
-      );
+      throw new IngestRejection('channel_conflict', { file: fileName, where, declared, typeName: type.name, typeChannel: type.channel });
     }
   }
   return { type, parsed: parseSweepFile({ text, fileName, byteLength, channel: type.channel }) };
@@ -128,9 +122,9 @@ export function planParts(input: {
     let lotId: number | null = null;
     if (lotCode) {
       const lot = lotsByCode.get(lotCode);
-      if (!lot) throw new IngestRejection('unknown_lot', `${fileName}: lot "${lotCode}" (part ${p.serial}) is not known. An inspector creates it on the Lots page first.`);
+      if (!lot) throw new IngestRejection('unknown_lot', { file: fileName, lot: lotCode, serial: p.serial });
       if (lot.deviceTypeId !== type.id) {
-        throw new IngestRejection('type_conflict', `${fileName}: lot "${lotCode}" is a lot of another device type, not ${type.name}. Check the lot or the device type.`);
+        throw new IngestRejection('type_conflict', { file: fileName, lot: lotCode, typeName: type.name });
       }
       lotId = lot.id;
     }
@@ -140,10 +134,7 @@ export function planParts(input: {
       { vdsTestV: type.vdsTestV, ...(temperatureC !== null ? { temperatureC } : {}) },
     );
     if (result.status !== 'fitted') {
-      throw new IngestRejection(
-        'not_fittable',
-        `${fileName}: part ${p.serial} could not be fitted — ${result.flags.map((f) => f.message).join(' ')} Check the fixture and measure the part again.`,
-      );
+      throw new IngestRejection('not_fittable', { file: fileName, serial: p.serial, flags: result.flags.map((f) => f.message) });
     }
     return {
       serial: p.serial,

@@ -45,11 +45,11 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
   const { operatingPoint: op, shape, tolerances: tol } = input;
   const count = input.count;
   if (!Number.isInteger(count) || count < 0) {
-    throw new MatchRequestError('invalid_request', `count must be a whole number ≥ 0, got ${count}`);
+    throw new MatchRequestError('match_request_invalid', { problem: 'count', count });
   }
   for (const [name, v] of Object.entries(tol)) {
     if (!(v >= 0)) {
-      throw new MatchRequestError('invalid_request', `tolerance ${name} must be ≥ 0 (Infinity for none), got ${v}`);
+      throw new MatchRequestError('match_request_invalid', { problem: 'tolerance', name, value: v });
     }
   }
   const opOk =
@@ -58,17 +58,11 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
     (op.kind !== 'current' || (op.idA > 0 && op.idA < Infinity)) &&
     (op.kind !== 'self_bias' || (op.rsOhm >= 0 && op.rsOhm < Infinity));
   if (!opOk) {
-    throw new MatchRequestError(
-      'invalid_request',
-      'the operating point needs VDS > 0 (N-equivalent), a drain current > 0 or a source resistor ≥ 0',
-    );
+    throw new MatchRequestError('match_request_invalid', { problem: 'operating_point' });
   }
   const cascodeShape = shape === 'cascode_pair' || shape === 'matched_cascode_pairs';
   if (cascodeShape && op.kind !== 'current') {
-    throw new MatchRequestError(
-      'cascode_needs_current',
-      'a cascode shares one drain current between its parts: give the operating point as a current (idA, vdsV)',
-    );
+    throw new MatchRequestError('cascode_needs_current');
   }
 
   const sameLot = input.options?.sameLot === true;

@@ -1,3 +1,5 @@
+import { AppError } from '../errors';
+
 /** A candidate set over a component's vertices: local indices in ascending order, and its cost. */
 export interface CandidateSet {
   members: readonly number[];
@@ -28,7 +30,12 @@ export const DEFAULT_PACKING_LIMITS: PackingLimits = {
   maxStates: 250_000,
 };
 
-class BudgetExceeded extends Error {}
+/** Thrown inside the exact search when it passes its state budget; caught by the caller here. */
+class BudgetExceeded extends AppError<'match_search_budget'> {
+  constructor() {
+    super('match_search_budget');
+  }
+}
 
 /**
  * Least-cost disjoint selections of k candidate sets for every k ≤ maxCount.

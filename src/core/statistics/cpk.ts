@@ -1,3 +1,4 @@
+import { AppError } from '../errors';
 import { mean, sampleStandardDeviation } from 'simple-statistics';
 
 /**
@@ -9,9 +10,9 @@ import { mean, sampleStandardDeviation } from 'simple-statistics';
 export function cpk(values: readonly number[], lsl?: number | null, usl?: number | null): number | null {
   const hasL = lsl !== undefined && lsl !== null;
   const hasU = usl !== undefined && usl !== null;
-  if (!hasL && !hasU) throw new RangeError('cpk needs at least one specification limit (lsl or usl).');
+  if (!hasL && !hasU) throw new AppError('cpk_needs_limit');
   if (hasL && hasU && !(lsl < usl)) {
-    throw new RangeError(`cpk needs lsl below usl, got lsl ${lsl} and usl ${usl}.`);
+    throw new AppError('cpk_limits_reversed', { lsl, usl });
   }
   const finite = values.filter(Number.isFinite);
   if (finite.length < 2) return null;

@@ -1,3 +1,4 @@
+import { AppError } from '../errors';
 export interface Histogram {
   bins: { loValue: number; hiValue: number; count: number }[];
   /** Values below the first edge / at or above the last edge (explicit edges only; 0 otherwise). */
@@ -18,7 +19,7 @@ export function histogram(values: readonly number[], binCountOrEdges: number | r
   const excluded = values.length - finite.length;
   if (typeof binCountOrEdges === 'number') {
     const k = binCountOrEdges;
-    if (!Number.isInteger(k) || k < 1) throw new RangeError(`histogram needs a whole bin count ≥ 1, got ${k}.`);
+    if (!Number.isInteger(k) || k < 1) throw new AppError('histogram_bin_count', { k });
     if (finite.length === 0) return { bins: [], below: 0, above: 0, excluded };
     let lo = finite[0];
     let hi = finite[0];
@@ -44,10 +45,10 @@ export function histogram(values: readonly number[], binCountOrEdges: number | r
     return { bins, below: 0, above: 0, excluded };
   }
   const edges = binCountOrEdges;
-  if (edges.length < 2) throw new RangeError('histogram needs at least 2 edges.');
+  if (edges.length < 2) throw new AppError('histogram_too_few_edges');
   for (let i = 1; i < edges.length; i++) {
     if (!(edges[i] > edges[i - 1])) {
-      throw new RangeError(`histogram edges must be strictly increasing: edge ${i} (${edges[i]}) is not above edge ${i - 1} (${edges[i - 1]}).`);
+      throw new AppError('histogram_edges_not_increasing', { index: i, edge: edges[i], previous: edges[i - 1] });
     }
   }
   const bins = edges.slice(0, -1).map((e, i) => ({ loValue: e, hiValue: edges[i + 1], count: 0 }));

@@ -1,3 +1,4 @@
+import { AppError } from '../errors';
 export interface YieldBreakdown {
   total: number;
   /** Sum of counts whose status is in `passingStatuses`. */
@@ -19,7 +20,7 @@ export function yieldBreakdown(
   const rows = Object.entries(statusCounts);
   for (const [status, count] of rows) {
     if (!Number.isInteger(count) || count < 0) {
-      throw new RangeError(`yieldBreakdown: count for '${status}' must be a whole number ≥ 0, got ${count}.`);
+      throw new AppError('yield_count_invalid', { status, count });
     }
   }
   const total = rows.reduce((s, [, c]) => s + c, 0);

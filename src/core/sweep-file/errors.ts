@@ -1,3 +1,4 @@
+import { AppError } from '../errors';
 import { capLength, escapeForMessage, MAX_MESSAGE_LENGTH } from './quote-for-message';
 
 /**
@@ -61,9 +62,8 @@ export interface SweepFileLocation {
   relatedLines?: number[];
 }
 
-export class SweepFileError extends Error {
+export class SweepFileError extends AppError<SweepFileErrorCode> {
   override readonly name = 'SweepFileError';
-  readonly code: SweepFileErrorCode;
   readonly file: string;
   readonly line: number | undefined;
   readonly column: number | undefined;
@@ -82,8 +82,12 @@ export class SweepFileError extends Error {
   ) {
     // File names, header labels and values come from the upload: escaped and capped here, so
     // no message carries a control character raw or grows with the file.
-    super(capLength(escapeForMessage(`${describeLocation(location)}: ${problem}. Expected ${expected}.`), MAX_MESSAGE_LENGTH));
-    this.code = code;
+    super(
+      code,
+      { where: describeLocation(location), problem, expected },
+      { file: location.file, line: location.line, column: location.column, field: location.field, related_lines: location.relatedLines },
+    );
+    this.message = capLength(escapeForMessage(this.message), MAX_MESSAGE_LENGTH);
     this.file = location.file;
     this.line = location.line;
     this.column = location.column;

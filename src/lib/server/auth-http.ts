@@ -1,14 +1,14 @@
 import { clearAccountFailures, recordSignInFailure, signInRefusal } from './services/auth/sign-in-guard';
-import { AppError, json, toResponse, type AppErrorCode } from './errors';
+import { AppError, toResponse, type ErrorCode } from './errors';
 import { readBodyCapped } from './http';
 
-const AUTH_STATUS_CODES: Record<number, AppErrorCode> = {
-  400: 'invalid_input',
-  401: 'unauthenticated',
-  403: 'forbidden',
-  404: 'not_found',
-  413: 'too_large',
-  429: 'rate_limited',
+/** The catalogue code of a refusal relayed from better-auth, by its status (the status is kept). */
+const RELAYED_CODES: Record<number, ErrorCode & `auth_${string}`> = {
+  400: 'auth_invalid_input',
+  401: 'auth_unauthenticated',
+  403: 'auth_forbidden',
+  404: 'auth_not_found',
+  413: 'auth_too_large',
 };
 
 /**
@@ -30,14 +30,13 @@ export async function toAuthErrorResponse(res: Response): Promise<Response> {
     if (v) headers[name] = v;
   }
   if (res.status === 429 && !headers['retry-after'] && headers['x-retry-after']) headers['retry-after'] = headers['x-retry-after'];
-  const code = AUTH_STATUS_CODES[res.status] ?? (res.status >= 500 ? 'internal' : 'invalid_input');
-  const message =
+  const details = typeof body.code === 'string' ? { auth_code: body.code } : {};
+  const message = typeof body.message === 'string' ? body.message : undefined;
+  const error =
     res.status === 429
-      ? 'Too many requests to the sign-in service from this address in the last minute. Wait a minute, then try again.'
-      : typeof body.message === 'string' && body.message
-        ? body.message
-        : `The sign-in service answered ${res.status}.`;
-  return json({ error: { code, message, ...(typeof body.code === 'string' ? { auth_code: body.code } : {}) } }, res.status, headers);
+      ? new AppError('sign_in_service_busy', undefined, details)
+      : new AppError(RELAYED_CODES[res.status] ?? (res.status >= 500 ? 'auth_failed' : 'auth_invalid_input'), { message, status: res.status }, details);
+  return toResponse(error, { status: res.status, headers });
 }
 
 /**
@@ -53,12 +52,12 @@ export async function withSignInGuard(request: Request, address: string, signIn:
     if (typeof parsed?.email === 'string') email = parsed.email;
   } catch (err) {
     if (err instanceof AppError) return toResponse(err);
-    return toResponse(new AppError('invalid_input', 'The sign-in request is not valid JSON: send {"email": …, "password": …}.'));
+    return toResponse(new AppError('sign_in_not_json'));
   }
   const subject = { email, address };
   const refusal = await signInRefusal(subject);
   if (refusal) {
-    return json({ error: { code: 'rate_limited', message: refusal.message, limit: refusal.kind } }, 429, { 'retry-after': String(refusal.retryAfterS) });
+    return toResponse(refusal.error, { headers: { 'retry-after': String(refusal.retryAfterS) } });
   }
   const res = await signIn(bodyText);
   if (res.status === 401) await recordSignInFailure(subject);

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { AppError } from '~/core/errors';
 import { DbEnvSchema } from '~/db/db-config';
 
 /**
@@ -56,16 +57,13 @@ export function serverEnv(): ServerEnv {
   const parsed = EnvSchema.safeParse(process.env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
-    throw new Error(`Sluice configuration is invalid:\n${lines.join('\n')}`);
+    throw new AppError('configuration_invalid', { lines });
   }
   const e = parsed.data;
   const publicUrl = (e.SLUICE_PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, '');
   const trustedOrigins = [...new Set([publicUrl, `http://127.0.0.1:${e.PORT}`, `http://localhost:${e.PORT}`])];
   if (!e.BETTER_AUTH_SECRET) {
-    throw new Error(
-      'BETTER_AUTH_SECRET is not set. `npm start` generates one in .data/secrets.env on first run; ' +
-        'when running the server by hand, export it from there.',
-    );
+    throw new AppError('auth_secret_missing');
   }
   cached = {
     host: e.HOST,

@@ -1,45 +1,23 @@
+import { AppError, type ErrorKind } from '~/core/errors';
 import { describeIssue, fieldPathWords } from '~/core/field-path-words';
 
-/**
- * The one error type services throw. Each code is permanent; the HTTP layer maps it to a
- * status with `toResponse`. Messages say what happened, why, and what to do next.
- */
-export type AppErrorCode =
-  | 'unauthenticated'
-  | 'forbidden'
-  | 'not_found'
-  | 'invalid_input'
-  | 'conflict'
-  | 'invalid_transition'
-  | 'too_large'
-  | 'rate_limited'
-  | 'internal';
+export { AppError, isAppError, type ErrorCode } from '~/core/errors';
 
-const STATUS: Record<AppErrorCode, number> = {
+/** The HTTP status of each kind of failure. */
+export const STATUS_OF_KIND: Record<ErrorKind, number> = {
+  invalid_input: 400,
   unauthenticated: 401,
   forbidden: 403,
   not_found: 404,
-  invalid_input: 400,
+  method_not_allowed: 405,
   conflict: 409,
   invalid_transition: 409,
   too_large: 413,
+  unprocessable: 422,
   rate_limited: 429,
   internal: 500,
+  unavailable: 503,
 };
-
-export class AppError extends Error {
-  readonly code: AppErrorCode;
-  readonly details: Record<string, unknown> | undefined;
-  constructor(code: AppErrorCode, message: string, details?: Record<string, unknown>) {
-    super(message);
-    this.name = 'AppError';
-    this.code = code;
-    this.details = details;
-  }
-  get status(): number {
-    return STATUS[this.code];
-  }
-}
 
 /**
  * Turns a zod error into an invalid_input AppError. The message names each field in words
@@ -48,7 +26,7 @@ export class AppError extends Error {
 export function fromZodError(error: { issues: { path: PropertyKey[]; message: string }[] }): AppError {
   const fields = error.issues.map((i) => ({ field: i.path.map(String).join('.') || '(body)', label: fieldPathWords(i.path) || 'the request', message: i.message }));
   const text = error.issues.map((i) => describeIssue(i.path, i.message)).join('; ');
-  return new AppError('invalid_input', `The request is not valid — ${text}.`, { fields });
+  return new AppError('validation_failed', { text }, { fields });
 }
 
 export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
@@ -58,26 +36,33 @@ export function json(body: unknown, status = 200, headers: Record<string, string
   });
 }
 
-/** Maps any thrown value to a JSON error response; unexpected errors are logged, not leaked. */
-export function toResponse(err: unknown): Response {
-  if (err instanceof AppError) {
-    return json({ error: { code: err.code, message: err.message, ...(err.details ?? {}) } }, err.status);
-  }
+/**
+ * The API's error body: `code` is the kind of failure (what clients switch on since the first
+ * release), `reason` the permanent catalogue code, then the message and the error's details.
+ */
+export function errorBody(err: AppError): { error: Record<string, unknown> } {
+  return { error: { code: err.kind, reason: err.code, message: err.message, ...(err.details ?? {}) } };
+}
+
+/**
+ * Maps any thrown value to a JSON error response: an AppError by its kind, a zod error as
+ * `validation_failed`, a value PostgreSQL refused as `value_refused_by_database`; anything
+ * else is logged and answered as `unexpected`, without leaking it. `init.status` keeps the
+ * status of an answer relayed from elsewhere (the framework, the sign-in library).
+ */
+export function toResponse(err: unknown, init: { status?: number; headers?: Record<string, string> } = {}): Response {
+  if (err instanceof AppError) return json(errorBody(err), init.status ?? STATUS_OF_KIND[err.kind], init.headers);
   if (err && typeof err === 'object' && 'issues' in err && Array.isArray((err as { issues: unknown }).issues)) {
-    const e = fromZodError(err as { issues: { path: PropertyKey[]; message: string }[] });
-    return toResponse(e);
+    return toResponse(fromZodError(err as { issues: { path: PropertyKey[]; message: string }[] }), init);
   }
   const data = postgresDataException(err);
   if (data) {
     // A value the request carried that no column can hold, missed by the request's own checks.
     console.warn('[api] request value refused by PostgreSQL:', data.message);
-    return json(
-      { error: { code: 'invalid_input', message: `A value in the request cannot be used: ${data.message}. Check the ids, numbers, dates and text you sent.` } },
-      400,
-    );
+    return toResponse(new AppError('value_refused_by_database', { reason: data.message }), init);
   }
   console.error(err);
-  return json({ error: { code: 'internal', message: 'Something went wrong on the server; it has been logged.' } }, 500);
+  return toResponse(new AppError('unexpected'), init);
 }
 
 /** PostgreSQL's data exceptions (SQLSTATE class 22: out of range, bad text, NUL bytes), wrapped or not. */

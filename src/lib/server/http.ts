@@ -19,7 +19,7 @@ export function endpoint(handler: (ctx: APIContext, actor: Actor | null) => Prom
 }
 
 function tooLarge(what: string, limit: number): AppError {
-  return new AppError('too_large', `${what} is larger than ${limit} bytes, the most this route takes. Send less in one request.`, { limit_bytes: limit });
+  return new AppError('body_too_large', { what, limitBytes: limit }, { limit_bytes: limit });
 }
 
 /**
@@ -109,11 +109,11 @@ export async function readJson(request: Request): Promise<unknown> {
   try {
     value = JSON.parse(text);
   } catch {
-    throw new AppError('invalid_input', 'The request body is not valid JSON.');
+    throw new AppError('body_not_json');
   }
   const bad = nulPath(value, '');
   if (bad !== null) {
-    throw new AppError('invalid_input', `The field ${bad || '(body)'} holds a NUL character (\\u0000), which Sluice cannot store. Remove it and send again.`, {
+    throw new AppError('nul_in_field', { field: bad || '(body)' }, {
       fields: [{ field: bad || '(body)', message: 'contains a NUL character' }],
     });
   }
@@ -125,6 +125,6 @@ export { json };
 /** A row id from the URL, else invalid_input naming `what`. */
 export function rowId(raw: string | undefined, what: string): number {
   const id = parseRowId(raw);
-  if (id === null) throw new AppError('invalid_input', `"${raw ?? ''}" is not a ${what} id: expected a whole number from 1 to ${MAX_ROW_ID}.`);
+  if (id === null) throw new AppError('bad_row_id', { raw: raw ?? '', what, max: MAX_ROW_ID });
   return id;
 }

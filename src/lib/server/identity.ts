@@ -40,9 +40,9 @@ export function actorFromLocals(locals: App.Locals): Actor | null {
 
 /** Throws 401/403 as an AppError when the actor lacks the permission. */
 export function requirePermission(actor: Actor | null, permission: Permission): asserts actor is Actor {
-  if (!actor) throw new AppError('unauthenticated', 'Sign in first: this needs an account.');
+  if (!actor) throw new AppError('sign_in_required');
   if (!actor.permissions.includes(permission)) {
-    throw new AppError('forbidden', `Your roles do not allow this (it needs ${permission}).`, { missing: permission });
+    throw new AppError('permission_missing', { need: permission }, { missing: permission });
   }
 }
 
@@ -51,11 +51,11 @@ export function requirePermission(actor: Actor | null, permission: Permission): 
  * only their own; throws 401/403 as an AppError when none.
  */
 export function requireOwnedRecordScope(actor: Actor | null, kind: OwnedRecord): { actor: Actor; scope: 'everyone' | 'own' } {
-  if (!actor) throw new AppError('unauthenticated', 'Sign in first: this needs an account.');
+  if (!actor) throw new AppError('sign_in_required');
   const scope = ownedRecordScope(kind, actor.permissions);
   if (scope === 'none') {
     const need = ownedRecordNeed(kind);
-    throw new AppError('forbidden', `Your roles do not allow this (it needs ${need.join(' or ')}).`, { missing: need[0] });
+    throw new AppError('permission_missing', { need: need.join(' or ') }, { missing: need[0] });
   }
   return { actor, scope };
 }

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { json } from '~/lib/server/errors';
+import { AppError, errorBody, json } from '~/lib/server/errors';
 import { checkHealth } from '~/lib/server/services/health/check-health';
 
 export const GET: APIRoute = async () => {
   const { databaseAnswers } = await checkHealth();
   if (databaseAnswers) return json({ ok: true });
-  return json({ ok: false, error: { code: 'internal', message: 'The database does not answer.' } }, 503);
+  return json({ ok: false, ...errorBody(new AppError('database_unreachable')) }, 503);
 };

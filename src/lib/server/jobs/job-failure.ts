@@ -1,3 +1,4 @@
+import { AppError } from '~/core/errors';
 import { storableText } from '~/core/text/storable-text';
 import { describeFailure } from '../failure-text';
 
@@ -8,9 +9,10 @@ import { describeFailure } from '../failure-text';
  * nothing to catch it, ended the worker. This copy carries only storable text: the message
  * (with the cause's, when it adds something), capped, and a stack of the same.
  */
-export class JobFailure extends Error {
+export class JobFailure extends AppError<'job_failed'> {
   constructor(queue: string, error: unknown) {
-    super(storableText(`${queue}: ${describe(error)}`));
+    super('job_failed', { queue, reason: describe(error) });
+    this.message = storableText(this.message);
     this.name = 'JobFailure';
     const stack = error instanceof Error ? error.stack : undefined;
     this.stack = stack ? storableText(stack, 4000) : undefined;

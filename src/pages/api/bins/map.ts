@@ -4,6 +4,6 @@ import { getBinMap } from '~/lib/server/services/bins/map';
 
 export const GET = endpoint(({ url }, actor) => {
   const deviceType = url.searchParams.get('device_type');
-  if (!deviceType) throw new AppError('invalid_input', 'Give ?device_type=<id or name>.');
+  if (!deviceType) throw new AppError('bin_map_needs_type');
   return getBinMap({ actor, deviceType });
 });

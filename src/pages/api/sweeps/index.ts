@@ -7,12 +7,10 @@ import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '~/lib/server/servic
 export const POST = endpoint(async ({ request }, actor) => {
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
-    throw new AppError('invalid_input', 'Send the sweep files as multipart/form-data, one or more fields named "file".');
+    throw new AppError('upload_not_multipart');
   }
   const tooLarge = (what: string) =>
-    new AppError('too_large', `The request is ${what}; one request may carry at most ${MAX_UPLOAD_REQUEST_BYTES} bytes. Send the files in several requests.`, {
-      limit_bytes: MAX_UPLOAD_REQUEST_BYTES,
-    });
+    new AppError('upload_request_too_large', { what, limitBytes: MAX_UPLOAD_REQUEST_BYTES }, { limit_bytes: MAX_UPLOAD_REQUEST_BYTES });
   const length = Number(request.headers.get('content-length') ?? 0);
   if (length > MAX_UPLOAD_REQUEST_BYTES) throw tooLarge(`${length} bytes`);
   // Chunked requests carry no Content-Length: the cap is applied while the body streams in.
@@ -22,7 +20,7 @@ export const POST = endpoint(async ({ request }, actor) => {
     form = await capped.request.formData();
   } catch {
     if (capped.exceeded()) throw tooLarge('larger than that');
-    throw new AppError('invalid_input', 'The multipart body could not be read; send the files as multipart/form-data fields named "file".');
+    throw new AppError('upload_unreadable');
   }
   const files: IncomingFile[] = [];
   for (const value of form.getAll('file')) {
@@ -33,7 +31,7 @@ export const POST = endpoint(async ({ request }, actor) => {
   for (const key of UPLOAD_TAG_FIELDS) {
     const v = form.get(key);
     if (typeof v === 'string') {
-      if (v.includes('\u0000')) throw new AppError('invalid_input', `The field ${key} holds a NUL character (\\u0000), which Sluice cannot store. Remove it and send again.`);
+      if (v.includes('\u0000')) throw new AppError('nul_in_field', { field: key });
       tags[key] = v;
     }
   }

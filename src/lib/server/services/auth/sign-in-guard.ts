@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { inArray, sql } from 'drizzle-orm';
+import { AppError } from '~/core/errors';
 import { getDb, schema } from '~/db/client';
 import { serverEnv } from '~/lib/server/env';
 
@@ -22,7 +23,7 @@ export interface SignInSubject {
 export interface SignInRefusal {
   kind: 'account' | 'address';
   retryAfterS: number;
-  message: string;
+  error: AppError<'sign_in_limit_account' | 'sign_in_limit_address'>;
 }
 
 const accountKey = (email: string) => `sign-in-failures:account:${email.trim().toLowerCase()}`;
@@ -43,18 +44,10 @@ export async function signInRefusal(subject: SignInSubject, now = Date.now()): P
     const limit = isAccount ? env.signInFailuresPerAccount : env.signInFailuresPerAddress;
     if (r.count < limit) continue;
     const retryAfterS = Math.max(1, Math.ceil((r.last + windowMs - now) / 1000));
-    const minutes = Math.ceil(retryAfterS / 60);
-    return isAccount
-      ? {
-          kind: 'account',
-          retryAfterS,
-          message: `Too many failed sign-ins for this account (${limit} in ${env.signInFailureWindowS / 60} minutes). Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask an admin to send a password reset.`,
-        }
-      : {
-          kind: 'address',
-          retryAfterS,
-          message: `Too many failed sign-ins from this address (${limit} in ${env.signInFailureWindowS / 60} minutes). Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,
-        };
+    const kind = isAccount ? 'account' : 'address';
+    const params = { limit, windowMinutes: env.signInFailureWindowS / 60, retryMinutes: Math.ceil(retryAfterS / 60) };
+    const error = new AppError(isAccount ? 'sign_in_limit_account' : 'sign_in_limit_address', params, { limit: kind });
+    return { kind, retryAfterS, error };
   }
   return null;
 }

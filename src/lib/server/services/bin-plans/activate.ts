@@ -30,10 +30,7 @@ export async function activateBinPlan({ actor, input }: { actor: Actor | null; i
     await tx.select({ id: schema.deviceType.id }).from(schema.deviceType).where(eq(schema.deviceType.id, type.id)).for('update');
     const active = await activePlanOf(tx, type.id);
     if (draft.based_on_plan_id !== undefined && (draft.based_on_plan_id ?? null) !== (active?.id ?? null)) {
-      throw new AppError(
-        'conflict',
-        `The active plan of ${type.name} changed since this preview (now ${active ? `version ${active.version}` : 'none'}). Preview again before saving.`,
-      );
+      throw new AppError('bin_plan_changed', { typeName: type.name, activeVersion: active ? active.version : null });
     }
     const [{ last }] = await tx.select({ last: max(schema.binPlan.version) }).from(schema.binPlan).where(eq(schema.binPlan.deviceTypeId, type.id));
     const version = (last ?? 0) + 1;

@@ -64,7 +64,7 @@ export async function getBinPlan({ actor, id }: { actor: Actor | null; id: numbe
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.binPlan.deviceTypeId))
     .leftJoin(schema.user, eq(schema.user.id, schema.binPlan.createdBy))
     .where(eq(schema.binPlan.id, id));
-  if (!row) throw new AppError('not_found', `There is no bin plan with id ${id}.`);
+  if (!row) throw new AppError('bin_plan_not_found', { id });
   const bins = await db
     .select({ id: schema.bin.id, code: schema.bin.code, label: schema.bin.label, isHold: schema.bin.isHold, ranges: schema.bin.ranges, location: schema.location.name, threshold: schema.bin.lowStockThreshold })
     .from(schema.bin)

@@ -11,7 +11,7 @@ export async function findDeviceType(tx: DbOrTx, ref: string | number): Promise<
     ? await tx.select().from(schema.deviceType).where(eq(schema.deviceType.id, Number(text)))
     : await tx.select().from(schema.deviceType).where(eq(schema.deviceType.name, text));
   if (!rows[0]) {
-    throw new AppError('not_found', `There is no device type "${text}". Give its id or exact name (see Device types).`);
+    throw new AppError('device_type_ref_not_found', { ref: text });
   }
   return rows[0];
 }

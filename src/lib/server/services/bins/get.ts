@@ -17,7 +17,7 @@ export async function loadBin(tx: DbOrTx, binId: number): Promise<BinJson> {
     .leftJoin(schema.location, eq(schema.location.id, schema.bin.homeLocationId))
     .where(eq(schema.bin.id, binId));
   const r = rows[0];
-  if (!r) throw new AppError('not_found', `There is no bin with id ${binId}.`);
+  if (!r) throw new AppError('bin_not_found', { id: binId });
   return binJson(r, { onHand: r.onHand, reserved: r.reserved, issued: r.issued });
 }
 

@@ -13,10 +13,10 @@ export async function updateBin({ actor, binId, input }: { actor: Actor | null; 
   const data = UpdateBinInput.parse(input);
   const { bin, alerts } = await getDb().transaction(async (tx) => {
     const [row] = await tx.select().from(schema.bin).where(eq(schema.bin.id, binId)).for('update');
-    if (!row) throw new AppError('not_found', `There is no bin with id ${binId}.`);
+    if (!row) throw new AppError('bin_not_found', { id: binId });
     if (data.home_location_id) {
       const [loc] = await tx.select({ id: schema.location.id }).from(schema.location).where(eq(schema.location.id, data.home_location_id));
-      if (!loc) throw new AppError('not_found', `There is no location with id ${data.home_location_id}; create it under Locations first.`);
+      if (!loc) throw new AppError('home_location_not_found', { id: data.home_location_id });
     }
     const next = {
       ...(data.home_location_id !== undefined ? { homeLocationId: data.home_location_id } : {}),

@@ -10,7 +10,7 @@ export async function createDeviceType({ actor, input }: { actor: Actor | null; 
   const data = DeviceTypeInput.parse(input);
   return getDb().transaction(async (tx) => {
     const existing = await tx.select({ id: schema.deviceType.id }).from(schema.deviceType).where(eq(schema.deviceType.name, data.name));
-    if (existing.length) throw new AppError('conflict', `A device type named ${data.name} already exists; edit it instead.`);
+    if (existing.length) throw new AppError('device_type_exists', { name: data.name });
     const [row] = await tx.insert(schema.deviceType).values(toColumns(data)).returning();
     await writeAudit(tx, actor, { action: 'device_type.create', subjectType: 'device_type', subjectId: row.id, after: data });
     return toDeviceTypeRow(row);

@@ -16,16 +16,16 @@ export async function updateDeviceType({ actor, id, input }: { actor: Actor | nu
   const data = DeviceTypeInput.parse(input);
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.deviceType).where(eq(schema.deviceType.id, typeId)).for('update');
-    if (!before) throw new AppError('not_found', `No device type with id ${typeId}.`);
+    if (!before) throw new AppError('device_type_id_not_found', { id: typeId });
     const clash = await tx
       .select({ id: schema.deviceType.id })
       .from(schema.deviceType)
       .where(and(eq(schema.deviceType.name, data.name), ne(schema.deviceType.id, typeId)));
-    if (clash.length) throw new AppError('conflict', `Another device type is already named ${data.name}.`);
+    if (clash.length) throw new AppError('device_type_name_taken', { name: data.name });
     if (data.channel !== before.channel) {
       const [{ n }] = await tx.select({ n: count() }).from(schema.part).where(eq(schema.part.deviceTypeId, typeId));
       if (n > 0) {
-        throw new AppError('conflict', `${before.name} has ${n} parts measured as ${before.channel.toUpperCase()}-channel; its channel cannot change. Create a new type instead.`);
+        throw new AppError('device_type_channel_fixed', { name: before.name, parts: n, channel: before.channel });
       }
     }
     const [row] = await tx.update(schema.deviceType).set(toColumns(data)).where(eq(schema.deviceType.id, typeId)).returning();

@@ -3,7 +3,7 @@ import type { MixerEstimateJson } from '~/contracts/estimates';
 import type { Channel } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { withRequestFields } from './core-errors';
+import { inRequestFieldNames } from './request-field-names';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
 import { MixerRequest } from './schemas';
 
@@ -25,7 +25,7 @@ export async function estimateMixerProducts({ actor, input }: { actor: Actor | n
   let vgs0V = body.vgs0_v;
   let selfBiasCurrentA: number | null = null;
   if (vgs0V === undefined) {
-    const point = withRequestFields(
+    const point = inRequestFieldNames(
       () => solveSelfBias(paramsFromIdssVp(idssA, vpV), { rsOhm: body.source_resistor_ohm!, vdsV: 0, channel }),
       { rsOhm: 'source_resistor_ohm' },
     );
@@ -46,7 +46,7 @@ export async function estimateMixerProducts({ actor, input }: { actor: Actor | n
   // With a stored part, IDSS/VP come from its fit: a core complaint about them names the serial.
   const renames: Record<string, string> = stored ? { idssA: 'serial', vpV: 'serial', channel: 'serial' } : { channel: 'vp_v' };
   if (body.source_resistor_ohm !== undefined) renames.vgs0V = 'source_resistor_ohm';
-  const result = withRequestFields(() => estimateMixer(coreInput), renames);
+  const result = inRequestFieldNames(() => estimateMixer(coreInput), renames);
 
   return {
     model: MIXER_MODEL,

@@ -5,7 +5,7 @@ import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadOwnReservation } from '../reservations/get';
-import { withRequestFields } from './core-errors';
+import { inRequestFieldNames } from './request-field-names';
 import { fitReviewWarnings, loadPartModel } from './part-model';
 import { SetRequest } from './schemas';
 import { SELF_BIAS_RENAMES, selfBiasPointBody } from './self-bias';
@@ -28,8 +28,8 @@ async function membersOf(actor: Actor, body: SetRequest): Promise<Map<number, Se
   const db = getDb();
   // Through the one ownership rule: another designer's reservation is as absent as a made-up id.
   const res = await loadOwnReservation(db, actor, body.reservation_id!).catch((err: unknown) => {
-    if (err instanceof AppError && err.code === 'not_found') {
-      throw new AppError('not_found', `No reservation ${body.reservation_id} of yours (reservation_id). Copy the id from your reservation's page.`, {
+    if (err instanceof AppError && err.kind === 'not_found') {
+      throw new AppError('estimate_reservation_not_found', { id: body.reservation_id }, {
         fields: [{ field: 'reservation_id', message: 'no reservation of yours with this id' }],
       });
     }
@@ -47,7 +47,7 @@ async function membersOf(actor: Actor, body: SetRequest): Promise<Map<number, Se
     sets.set(rp.setIndex, list);
   }
   if (sets.size === 0) {
-    throw new AppError('conflict', `Reservation ${res.id} holds no parts (reservation_id).`, { fields: [{ field: 'reservation_id', message: 'the reservation holds no parts' }] });
+    throw new AppError('estimate_reservation_empty', { id: res.id }, { fields: [{ field: 'reservation_id', message: 'the reservation holds no parts' }] });
   }
   return sets;
 }
@@ -67,7 +67,7 @@ export async function estimateMatchedSet({ actor, input }: { actor: Actor | null
     for (const m of members) {
       try {
         const model = await loadPartModel(db, m.serial, 'serials');
-        const point = withRequestFields(
+        const point = inRequestFieldNames(
           () => sourceResistorForCurrent(model.basis, body.target_drain_current_a, body.vds_v, { drainLoadOhm: body.drain_load_ohm, channel: model.channel }),
           SELF_BIAS_RENAMES,
         );

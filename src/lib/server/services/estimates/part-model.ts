@@ -37,12 +37,12 @@ export async function loadPartModel(db: DbOrTx, serial: string, field = 'serial'
     .limit(1);
   const row = rows[0];
   if (!row) {
-    throw new AppError('not_found', `No part with serial '${serial}' (${field}). Check the serial on the label.`, {
+    throw new AppError('part_not_found', { serial, field }, {
       fields: [{ field, message: `no part with serial '${serial}'` }],
     });
   }
   if (!row.fit) {
-    throw new AppError('conflict', `Part ${serial} has no current fit (${field}); upload a sweep of it, or wait for its fit to finish.`, {
+    throw new AppError('part_has_no_fit', { serial, field }, {
       fields: [{ field, message: `part ${serial} has no current fit` }],
     });
   }

@@ -3,7 +3,7 @@ import type { SelfBiasEstimateJson, SelfBiasPointJson } from '~/contracts/estima
 import type { Channel, JfetParams } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { withRequestFields } from './core-errors';
+import { inRequestFieldNames } from './request-field-names';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
 import { SelfBiasRequest } from './schemas';
 
@@ -49,7 +49,7 @@ export async function estimateSelfBias({ actor, input }: { actor: Actor | null; 
     channel = stored.channel;
   } else {
     channel = body.vp_v! > 0 ? 'p' : 'n';
-    params = withRequestFields(() => paramsFromIdssVp(body.idss_a!, body.vp_v!, body.lambda_per_v ?? 0, body.idss_vds_v ?? 0));
+    params = inRequestFieldNames(() => paramsFromIdssVp(body.idss_a!, body.vp_v!, body.lambda_per_v ?? 0, body.idss_vds_v ?? 0));
   }
   const renames: Record<string, string> = stored
     ? { ...SELF_BIAS_RENAMES, 'params.vtoV': 'serial', 'params.betaAPerV2': 'serial', 'params.lambdaPerV': 'serial', 'params.rsOhm': 'serial', 'params.rdOhm': 'serial' }
@@ -61,11 +61,11 @@ export async function estimateSelfBias({ actor, input }: { actor: Actor | null; 
   const forTarget =
     body.target_drain_current_a === undefined
       ? null
-      : withRequestFields(() => sourceResistorForCurrent(basis, body.target_drain_current_a!, body.vds_v, options), renames);
+      : inRequestFieldNames(() => sourceResistorForCurrent(basis, body.target_drain_current_a!, body.vds_v, options), renames);
   const forResistor =
     body.source_resistor_ohm === undefined
       ? null
-      : withRequestFields(() => solveSelfBias(basis, { rsOhm: body.source_resistor_ohm!, vdsV: body.vds_v, ...options }), renames);
+      : inRequestFieldNames(() => solveSelfBias(basis, { rsOhm: body.source_resistor_ohm!, vdsV: body.vds_v, ...options }), renames);
 
   // The target's resistor rounded to the nearest IEC 60063 E24 and E96 values, solved the same way.
   const preferred = forTarget

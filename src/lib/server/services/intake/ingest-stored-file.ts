@@ -1,4 +1,5 @@
 import { inArray } from 'drizzle-orm';
+import { AppError } from '~/core/errors';
 import { IngestRejection } from '~/core/intake/ingest-rejection';
 import { lotCodesOf, planParts, readSweepForType } from '~/core/intake/plan-sweep-file';
 import { storageGroups } from '~/core/intake/storage-groups';
@@ -53,7 +54,7 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
 
   for (const id of ids) {
     const row = rowById.get(id);
-    if (!row) throw new Error(`upload_file ${id} does not exist`);
+    if (!row) throw new AppError('upload_file_missing', { id });
     const { file, upload } = row;
     if (file.state !== 'queued' || file.duplicateOfId !== null) {
       outcomes.set(id, outcomeOf(file));
@@ -68,7 +69,7 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
       try {
         bytes = await readStoredUpload(file.storedPath);
       } catch {
-        throw new IngestRejection('stored_file_missing', `${file.originalName}: the stored copy (${file.storedPath}) could not be read; upload the file again.`);
+        throw new IngestRejection('stored_file_missing', { file: file.originalName, storedPath: file.storedPath });
       }
       planned.push({ file, actor, plan: await planFile(bytes, file.originalName, tags, defaultStation, lots) });
     } catch (err) {
@@ -84,7 +85,7 @@ export async function ingestStoredFiles(uploadFileIds: number[]): Promise<Ingest
   if (failures.length) {
     // The rest of the batch is stored; the job is retried for these (done files are skipped).
     const first = failures[0].error;
-    throw new Error(`upload file(s) ${failures.map((f) => f.uploadFileId).join(', ')} could not be ingested: ${describeFailure(first)}`, { cause: first });
+    throw new AppError('ingest_failed', { ids: failures.map((f) => f.uploadFileId), reason: describeFailure(first) }, undefined, { cause: first });
   }
   return uploadFileIds.map((id) => outcomes.get(id)!);
 }

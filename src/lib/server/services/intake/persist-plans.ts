@@ -96,10 +96,10 @@ export async function persistPlans(group: PlannedFile[]): Promise<IngestOutcome[
       const existing = partBySerial.get(p.serial)!;
       const type = f.plan.type;
       if (existing.deviceTypeId !== type.id) {
-        throw new IngestRejection('type_conflict', `${f.file.originalName}: part ${p.serial} is already known as another device type, not ${type.name}. Check the serial or the device type.`);
+        throw new IngestRejection('type_conflict', { file: f.file.originalName, serial: p.serial, typeName: type.name });
       }
       const refusal = NO_NEW_SWEEP[existing.status];
-      if (refusal) throw new IngestRejection('part_unavailable', `${f.file.originalName}: part ${p.serial} ${refusal}.`);
+      if (refusal) throw new IngestRejection('part_unavailable', { file: f.file.originalName, serial: p.serial, refusal });
     }
 
     const sweeps = await insertRowsAsJson(

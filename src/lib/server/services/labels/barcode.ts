@@ -24,7 +24,7 @@ export function barcodeSvg(text: string, symbology: Symbology = 'code128'): stri
   try {
     return bwipjs.toSVG(options(text, symbology));
   } catch (err) {
-    throw new AppError('invalid_input', `Cannot encode "${text}" as ${symbology}: ${(err as Error).message}`);
+    throw new AppError('barcode_not_encodable', { text, symbology, reason: (err as Error).message });
   }
 }
 
@@ -33,6 +33,6 @@ export async function barcodePng(text: string, symbology: Symbology = 'code128',
   try {
     return await bwipjs.toBuffer({ ...options(text, symbology), scale });
   } catch (err) {
-    throw new AppError('invalid_input', `Cannot encode "${text}" as ${symbology}: ${(err as Error).message}`);
+    throw new AppError('barcode_not_encodable', { text, symbology, reason: (err as Error).message });
   }
 }

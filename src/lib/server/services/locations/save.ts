@@ -13,7 +13,7 @@ async function assertFree(tx: DbOrTx, name: string | undefined, barcode: string 
   const other = clash.find((c) => c.id !== exceptId);
   if (other) {
     const what = other.name === name ? `the name "${name}"` : `the barcode ${barcode}`;
-    throw new AppError('conflict', `Location "${other.name}" already has ${what}; choose another.`);
+    throw new AppError('location_taken', { name: other.name, what });
   }
 }
 
@@ -34,7 +34,7 @@ export async function updateLocation({ actor, id, input }: { actor: Actor | null
   const data = LocationPatch.parse(input);
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.location).where(eq(schema.location.id, id)).for('update');
-    if (!before) throw new AppError('not_found', `There is no location with id ${id}.`);
+    if (!before) throw new AppError('location_not_found', { id });
     await assertFree(tx, data.name, data.barcode, id);
     const [row] = await tx.update(schema.location).set(data).where(eq(schema.location.id, id)).returning();
     await writeAudit(tx, actor, { action: 'location.update', subjectType: 'location', subjectId: id, before, after: row });
@@ -47,7 +47,7 @@ export async function deleteLocation({ actor, id }: { actor: Actor | null; id: n
   requirePermission(actor, 'locations:manage');
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.location).where(eq(schema.location.id, id)).for('update');
-    if (!before) throw new AppError('not_found', `There is no location with id ${id}.`);
+    if (!before) throw new AppError('location_not_found', { id });
     const [use] = await tx
       .select({
         bins: sql<number>`(select count(*)::int from ${schema.bin} where home_location_id = ${id})`,
@@ -56,10 +56,7 @@ export async function deleteLocation({ actor, id }: { actor: Actor | null; id: n
       })
       .from(sql`(select 1) as one`);
     if (use.bins + use.parts + use.picks > 0) {
-      throw new AppError(
-        'conflict',
-        `"${before.name}" is still in use (${use.bins} bin(s) call it home, ${use.parts} part(s) were put there, ${use.picks} pick line(s) name it). Move them first, or rename the location instead.`,
-      );
+      throw new AppError('location_in_use', { name: before.name, bins: use.bins, parts: use.parts, picks: use.picks });
     }
     await tx.delete(schema.location).where(eq(schema.location.id, id));
     await writeAudit(tx, actor, { action: 'location.delete', subjectType: 'location', subjectId: id, before });

@@ -25,10 +25,10 @@ export async function createLot({ actor, input }: { actor: Actor | null; input: 
     const [type] = await tx.select().from(schema.deviceType).where(eq(schema.deviceType.name, data.device_type));
     if (!type) {
       const known = await tx.select({ name: schema.deviceType.name }).from(schema.deviceType);
-      throw new AppError('invalid_input', `Device type ${data.device_type} is not known. Known types: ${known.map((k) => k.name).join(', ') || 'none'}.`);
+      throw new AppError('device_type_unknown', { name: data.device_type, known: known.map((k) => k.name) });
     }
     const clash = await tx.select({ id: schema.lot.id }).from(schema.lot).where(eq(schema.lot.code, data.code));
-    if (clash.length) throw new AppError('conflict', `Lot ${data.code} already exists.`);
+    if (clash.length) throw new AppError('lot_exists', { code: data.code });
     const [row] = await tx
       .insert(schema.lot)
       .values({ code: data.code, deviceTypeId: type.id, supplier: data.supplier, notes: data.notes, receivedAt: data.received_at ?? new Date(), createdBy: actor.userId })

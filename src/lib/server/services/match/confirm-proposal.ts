@@ -54,14 +54,14 @@ export async function confirmMatchProposal({
   const { reservationId, pickListId, alerts } = await db.transaction(async (tx) => {
     const proposal = await loadOwnProposal(tx, actor, proposalId, true);
     if (proposal.confirmedReservationId) {
-      throw new AppError('conflict', `This proposal was already confirmed as reservation ${reservationCode(proposal.confirmedReservationId)}.`, {
+      throw new AppError('proposal_already_confirmed', { reservation: reservationCode(proposal.confirmedReservationId) }, {
         reservation_id: proposal.confirmedReservationId,
       });
     }
     const result = proposal.result as StoredProposalResult;
     const wanted = result.sets.flatMap((s) => s.parts.map((p) => ({ ...p, setIndex: s.index })));
     if (wanted.length === 0) {
-      throw new AppError('invalid_input', 'This proposal has no sets to reserve. Loosen the tolerances or change the operating point and ask again.');
+      throw new AppError('proposal_has_no_sets');
     }
     const ids = wanted.map((w) => w.part_id).sort((a, b) => a - b);
     const locked = await tx
@@ -80,9 +80,8 @@ export async function confirmMatchProposal({
     if (taken.length) {
       const names = taken.map((t) => `${t.serial} (${t.reason})`).join(', ');
       throw new AppError(
-        'conflict',
-        `Nothing was reserved: ${taken.length === 1 ? 'part' : 'parts'} ${names} ${taken.length === 1 ? 'is' : 'are'} no longer available. ` +
-          'Ask for a fresh proposal; it will draw from what is in stock now.',
+        'parts_taken',
+        { serials: taken.map((t) => t.serial) },
         { taken },
       );
     }

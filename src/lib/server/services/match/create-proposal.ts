@@ -1,6 +1,5 @@
 import { chooseMatchedSets } from '~/core/match/choose-matched-sets';
 import { DVGS_GUARD_SIGMAS } from '~/core/match/set-mismatch';
-import { MatchRequestError } from '~/core/match/match-request-error';
 import type { MatchCandidate, MatchResult, MatchTolerances, OperatingPoint } from '~/core/match/match-types';
 import { getDb, getPool, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
@@ -60,7 +59,7 @@ const orInfinity = (v: number | null | undefined) => (v === null || v === undefi
 export async function createMatchProposal({ actor, input }: { actor: Actor | null; input: unknown }): Promise<ProposalView> {
   const started = performance.now();
   requirePermission(actor, 'match:request');
-  if (!actor.userId) throw new AppError('forbidden', 'Match proposals are made by people, not stations.');
+  if (!actor.userId) throw new AppError('people_only', { what: 'Match proposals' });
   const designerUserId = actor.userId;
   const req = ProposalRequest.parse(input);
   const type = await findDeviceType(req.device_type);
@@ -90,18 +89,13 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
   let result: MatchResult | undefined;
   let fresh = new Map<number, PartJson>();
   for (let attempt = 0; attempt < 3; attempt++) {
-    try {
-      result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c });
-    } catch (err) {
-      if (err instanceof MatchRequestError) throw new AppError('invalid_input', `The match request cannot be answered as asked: ${err.message}.`);
-      throw err;
-    }
+    result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c });
     const chosen = result.sets.flatMap((s) => s.parts.map((p) => stock.partIds[stock.slotBySerial.get(p.id)!]!));
     fresh = await readChosenParts(type, chosen);
     const gone = new Set(chosen.filter((id) => fresh.get(id)?.status !== 'in_stock'));
     if (gone.size === 0) break;
     candidates = candidates.filter((c) => !gone.has(stock.partIds[stock.slotBySerial.get(c.id)!]!));
-    if (attempt === 2) throw new AppError('conflict', 'Stock is changing too fast to propose sets right now; ask again in a moment.');
+    if (attempt === 2) throw new AppError('stock_changing');
   }
 
   const view = presentResult(type, req, stock, candidates.length, result!, fresh);

@@ -18,10 +18,7 @@ export async function findDeviceType(ref: string | number, db: DbOrTx = getDb())
     .limit(1);
   if (rows[0]) return rows[0];
   const known = await db.select({ name: schema.deviceType.name }).from(schema.deviceType);
-  throw new AppError(
-    'not_found',
-    `There is no device type ${JSON.stringify(ref)}. Known types: ${known.map((k) => k.name).join(', ') || 'none yet'}.`,
-  );
+  throw new AppError('device_type_not_found', { ref, known: known.map((k) => k.name) });
 }
 
 /**
@@ -43,8 +40,8 @@ export async function resolveBinCodes(deviceTypeId: number, codes: string[], db:
       .innerJoin(schema.binPlan, eq(schema.binPlan.id, schema.bin.binPlanId))
       .where(eq(schema.binPlan.deviceTypeId, deviceTypeId));
     throw new AppError(
-      'invalid_input',
-      `No bin ${missing.join(', ')} in this type's bin plans. Its bins: ${all.map((a) => a.code).sort().join(', ') || 'none (no bin plan yet)'}.`,
+      'device_type_bins_unknown',
+      { missing, bins: all.map((a) => a.code).sort() },
       { unknown_bins: missing },
     );
   }

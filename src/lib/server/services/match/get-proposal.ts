@@ -11,11 +11,11 @@ export const ProposalId = z.uuid('a proposal id is a UUID');
 /** A stored proposal row of the actor's own, or not_found (another designer's looks absent). */
 export async function loadOwnProposal(db: DbOrTx, actor: Actor, id: string, lock = false) {
   const parsed = ProposalId.safeParse(id);
-  if (!parsed.success) throw new AppError('not_found', `There is no match proposal ${id}.`);
+  if (!parsed.success) throw new AppError('proposal_not_found', { id });
   const q = db.select().from(schema.matchProposal).where(eq(schema.matchProposal.id, parsed.data));
   const [row] = lock ? await q.for('update') : await q;
   if (!row || !maySeeOwnedRecord('matchProposal', actor, row.designerUserId)) {
-    throw new AppError('not_found', `There is no match proposal ${id} of yours. Ask for a new one on the match page.`);
+    throw new AppError('proposal_not_found', { id });
   }
   return row;
 }

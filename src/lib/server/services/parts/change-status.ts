@@ -36,7 +36,7 @@ export async function changePartStatuses(
 ): Promise<ChangedPart[]> {
   if (changes.length === 0) return [];
   const ids = [...new Set(changes.map((c) => c.partId))].sort((a, b) => a - b);
-  if (ids.length !== changes.length) throw new AppError('invalid_input', 'The same part appears twice in one batch.');
+  if (ids.length !== changes.length) throw new AppError('part_twice_in_batch');
   const rows = await tx
     .select()
     .from(schema.part)
@@ -47,16 +47,12 @@ export async function changePartStatuses(
   const refused: { serial: string; reason: string }[] = [];
   for (const c of changes) {
     const row = byId.get(c.partId);
-    if (!row) throw new AppError('not_found', `Part id ${c.partId} does not exist.`);
+    if (!row) throw new AppError('part_id_not_found', { id: c.partId });
     const check = checkPartTransition(row.status, c.to);
     if (!check.ok) refused.push({ serial: row.serial, reason: check.reason! });
   }
   if (refused.length) {
-    throw new AppError(
-      'invalid_transition',
-      `Nothing was changed: ${refused.map((r) => `${r.serial} — ${r.reason}`).join('; ')}.`,
-      { refused },
-    );
+    throw new AppError('status_change_refused', { refused }, { refused });
   }
   // One UPDATE per distinct (status, columns) rather than one per part: batches run to hundreds.
   const groups = new Map<string, { change: StatusChange; ids: number[] }>();

@@ -100,7 +100,7 @@ export async function getPartBySerial({ actor, serial }: { actor: Actor | null; 
     .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
     .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
     .where(eq(schema.part.serial, normalizeSerial(serial)));
-  if (!row) throw new AppError('not_found', `No part with serial ${normalizeSerial(serial)}. Serials are matched after trimming blanks and upper-casing; try the parts search.`);
+  if (!row) throw new AppError('part_not_found', { serial: normalizeSerial(serial) });
   const { part, type } = row;
 
   const sweeps = await db

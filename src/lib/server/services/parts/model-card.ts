@@ -18,8 +18,8 @@ export async function getPartModelCard({ actor, serial }: { actor: Actor | null;
     .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .leftJoin(schema.sweep, eq(schema.sweep.id, schema.fit.sweepId))
     .where(eq(schema.part.serial, serial));
-  if (!row) throw new AppError('not_found', `No part with serial ${serial}.`);
-  if (!row.fit) throw new AppError('not_found', `Part ${serial} has no fit yet, so it has no model card.`);
+  if (!row) throw new AppError('part_not_found', { serial });
+  if (!row.fit) throw new AppError('part_has_no_model_card', { serial });
   const { part, type, fit, sweep } = row;
   const card = formatModelCard({
     serial: part.serial,

@@ -20,12 +20,12 @@ export async function getPartOperatingPoint({ actor, serial, query }: { actor: A
   const wanted = normalizeSerial(serial);
   const db = getDb();
   const [part] = await db.select({ id: schema.part.id }).from(schema.part).where(eq(schema.part.serial, wanted)).limit(1);
-  if (!part) throw new AppError('not_found', `No part with serial ${wanted}. Check the serial on the label, or search the parts list.`);
+  if (!part) throw new AppError('part_not_found', { serial: wanted });
   const stored = (await loadPartBases(db, [part.id])).get(part.id);
-  if (!stored) throw new AppError('conflict', `Part ${wanted} has no current fit yet: upload a sweep of it, or wait for its fit to finish.`);
+  if (!stored) throw new AppError('part_has_no_fit', { serial: wanted });
   const e = partOperatingFigures(stored.basis, { kind: 'current', idA: q.id_a, vdsV: q.vds_v }, q.temperature_c);
   if (!e.usable) {
-    throw new AppError('invalid_input', `Part ${wanted} cannot run at ${q.id_a} A and ${q.vds_v} V: ${e.reason}.`, {
+    throw new AppError('part_cannot_run_there', { serial: wanted, idA: q.id_a, vdsV: q.vds_v, reason: e.reason }, {
       fields: [{ field: e.code === 'not_saturated' ? 'vds_v' : 'id_a', message: e.reason }],
     });
   }

@@ -7,7 +7,7 @@ import { loadPickListView, type PickListView } from './pick-list-view';
 
 export function parsePickListId(id: string): number {
   const n = parseRowId(String(id).replace(/^PL-/i, ''));
-  if (n === null) throw new AppError('not_found', `There is no pick list ${id}.`);
+  if (n === null) throw new AppError('pick_list_not_found', { id });
   return n;
 }
 
@@ -16,7 +16,7 @@ export async function getPickList({ actor, id }: { actor: Actor | null; id: stri
   await expireDueReservations();
   const list = await loadPickListView(getDb(), parsePickListId(id));
   if (!list || !maySeeOwnedRecord('pickList', who, list.reservation.designer_user_id)) {
-    throw new AppError('not_found', `There is no pick list ${id}${scope === 'own' ? ' for your reservations' : ''}.`);
+    throw new AppError('pick_list_not_found', { id, ownOnly: scope === 'own' });
   }
   return list;
 }

@@ -41,7 +41,7 @@ export async function returnPickedParts({ actor, id, input }: { actor: Actor | n
       if (l.status !== 'issued') return [`${s} is ${l.status.replace('_', ' ')}, not issued`];
       return [];
     });
-    if (problems.length) throw new AppError('conflict', `Nothing was taken back: ${problems.join('; ')}.`, { problems });
+    if (problems.length) throw new AppError('return_refused', { problems }, { problems });
     const reason = req.reason ? `return from ${code}: ${req.reason}` : `return from ${code}`;
     await changePartStatuses(
       tx,

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
-import { AppError } from '~/lib/server/errors';
+import { AppError, type AppErrorArgs, type ErrorParams } from '~/core/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { expireDueReservations } from '../reservations/expire';
@@ -30,8 +30,14 @@ export interface ScanResult {
   pick_list: PickListView;
 }
 
-function refuse(refusal: ScanRefusal, message: string, extra: Record<string, unknown> = {}): never {
-  throw new AppError('conflict', message, { refusal, ...extra });
+/** The scan's refusal: the catalogue's error, with `refusal` (what the scanner screen switches on). */
+function refusal<C extends 'pick_list_closed' | 'pick_list_reservation_closed' | 'not_on_pick_list' | 'already_picked'>(
+  refusal: ScanRefusal,
+  code: C,
+  params: ErrorParams<C>,
+  extra: Record<string, unknown> = {},
+): AppError<C> {
+  return new AppError<C>(code, ...([params, { refusal, ...extra }] as AppErrorArgs<C>));
 }
 
 /**
@@ -49,15 +55,15 @@ export async function scanPickLine({ actor, id, input }: { actor: Actor | null; 
   const db = getDb();
   const out = await db.transaction(async (tx) => {
     const [head] = await tx.select({ reservationId: schema.pickList.reservationId }).from(schema.pickList).where(eq(schema.pickList.id, listId));
-    if (!head) throw new AppError('not_found', `There is no pick list ${pickListCode(listId)}.`);
+    if (!head) throw new AppError('pick_list_not_found', { id: pickListCode(listId) });
     const [reservation] = await tx.select().from(schema.reservation).where(eq(schema.reservation.id, head.reservationId)).for('update');
     const [list] = await tx.select().from(schema.pickList).where(eq(schema.pickList.id, listId)).for('update');
     const code = pickListCode(listId);
     if (list!.status !== 'open') {
-      refuse('list_closed', `Pick list ${code} is ${list!.status}; nothing more is picked on it.${list!.status === 'cancelled' ? ' Put any parts taken for it back in their locations.' : ''}`);
+      throw refusal('list_closed', 'pick_list_closed', { code, status: list!.status });
     }
     if (reservation!.status !== 'active') {
-      refuse('list_closed', `Reservation ${reservationCode(reservation!.id)} is ${reservation!.status}; this list can no longer be picked.`);
+      throw refusal('list_closed', 'pick_list_reservation_closed', { reservation: reservationCode(reservation!.id), status: reservation!.status });
     }
     const lines = await tx
       .select({ line: schema.pickLine, serial: schema.part.serial, location: schema.location.name, pickerName: schema.user.name })
@@ -75,14 +81,12 @@ export async function scanPickLine({ actor, id, input }: { actor: Actor | null; 
         .from(schema.part)
         .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
         .where(sql`upper(${schema.part.serial}) = ${serial}`);
-      const what = other
-        ? `That part is ${describePartStatus(other.status as PartStatus)}${other.location ? ` at ${other.location}` : ''}; leave it where it is.`
-        : 'No part has that serial: check the label, or type it by hand.';
-      refuse('not_on_list', `${serial} is not on pick list ${code}. ${what}`);
+      const part = other ? { status: describePartStatus(other.status as PartStatus), location: other.location } : null;
+      throw refusal('not_on_list', 'not_on_pick_list', { serial, code, part });
     }
     if (hit.line.pickedAt) {
       const at = hit.line.pickedAt.toISOString().slice(11, 16);
-      refuse('already_picked', `${hit.serial} was already picked (line ${hit.line.lineNo}, at ${at} UTC${hit.pickerName ? ` by ${hit.pickerName}` : ''}).`, {
+      throw refusal('already_picked', 'already_picked', { serial: hit.serial, line: hit.line.lineNo, at, picker: hit.pickerName }, {
         line_no: hit.line.lineNo,
       });
     }

@@ -26,7 +26,7 @@ export async function cancelReservation({
   const putBack = await db.transaction(async (tx) => {
     const [r] = await tx.select().from(schema.reservation).where(eq(schema.reservation.id, id)).for('update');
     if (r!.status !== 'active') {
-      throw new AppError('conflict', `Reservation ${reservationCode(id)} is ${r!.status}; only an active reservation can be cancelled.`);
+      throw new AppError('reservation_not_active', { code: reservationCode(id), status: r!.status });
     }
     const [list] = await tx.select().from(schema.pickList).where(eq(schema.pickList.reservationId, id)).for('update');
     const picked = list

@@ -39,7 +39,7 @@ function describeOperatingPoint(op: StoredProposalResult['operating_point']): st
 /** The model cards (NJF/PJF, one per part, named by serial) or the CSV of one set's figures. */
 async function exportSet(result: StoredProposalResult, setNo: number, label: string, format: SetExportFormat): Promise<ExportFile> {
   const set = result.sets[setNo - 1];
-  if (!set) throw new AppError('not_found', `There is no set ${setNo} in ${label}; it has ${result.sets.length}.`);
+  if (!set) throw new AppError('set_not_found', { setNo, label, sets: result.sets.length });
   const ids = set.parts.map((p) => p.part_id);
   const rows = await getDb()
     .select({ partId: schema.part.id, fit: schema.fit, temperatureC: schema.sweep.temperatureC })
@@ -99,7 +99,7 @@ export async function exportReservationSet({
 }): Promise<ExportFile> {
   requirePermission(actor, 'match:request');
   const view = await loadOwnReservation(getDb(), actor, id);
-  if (!view.proposal_id) throw new AppError('not_found', `Reservation ${view.code} has no stored match figures to export.`);
+  if (!view.proposal_id) throw new AppError('reservation_has_no_figures', { code: view.code });
   const proposal = await loadOwnProposal(getDb(), actor, view.proposal_id);
   return exportSet(proposal.result as StoredProposalResult, setNo, reservationCode(view.id), format);
 }

@@ -12,7 +12,7 @@ export async function loadOwnReservation(db: DbOrTx, actor: Actor, id: string): 
   const parsed = ReservationId.safeParse(id);
   const view = parsed.success ? await loadReservationView(db, parsed.data) : null;
   if (!view || !maySeeOwnedRecord('reservation', actor, view.designer.id)) {
-    throw new AppError('not_found', `There is no reservation ${id} of yours. Your reservations are listed at /reservations.`);
+    throw new AppError('reservation_not_found', { id });
   }
   return view;
 }

@@ -46,7 +46,7 @@ export async function acceptFits({ actor, input }: { actor: Actor | null; input:
   requirePermission(actor, 'fits:review');
   const data = AcceptManyInput.parse(input);
   const serials = data.parts.map((p) => p.serial);
-  if (new Set(serials).size !== serials.length) throw new AppError('invalid_input', 'The same part is listed twice; choose each part once.');
+  if (new Set(serials).size !== serials.length) throw new AppError('part_listed_twice');
   return getDb().transaction(async (tx) => {
     const accepted = [];
     // Serial order, so two batches over the same parts lock them in the same order.

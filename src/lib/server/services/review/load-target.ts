@@ -10,10 +10,10 @@ export async function loadReviewTarget(tx: DbOrTx, serial: string, fitId: number
     .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .where(eq(schema.part.serial, serial))
     .for('update', { of: schema.part });
-  if (!row) throw new AppError('not_found', `No part with serial ${serial}.`);
-  if (row.part.currentFitId === null) throw new AppError('conflict', `Part ${serial} has no fit to review.`);
+  if (!row) throw new AppError('part_not_found', { serial });
+  if (row.part.currentFitId === null) throw new AppError('part_has_no_fit_to_review', { serial });
   if (fitId !== undefined && fitId !== row.part.currentFitId) {
-    throw new AppError('conflict', `Part ${serial} has a newer fit (${row.part.currentFitId}) than the one you reviewed (${fitId}); reload the page and look again.`);
+    throw new AppError('fit_superseded', { serial, currentFitId: row.part.currentFitId, reviewedFitId: fitId });
   }
   const [fit] = await tx.select().from(schema.fit).where(eq(schema.fit.id, row.part.currentFitId));
   const [sweep] = await tx.select().from(schema.sweep).where(eq(schema.sweep.id, fit.sweepId));

@@ -23,19 +23,14 @@ export async function refitWithExclusions({ actor, input }: { actor: Actor | nul
     const { part, type, fit, sweep } = await loadReviewTarget(tx, data.serial, data.fit_id);
     const curves = sweep.curves as StoredCurve[];
     const unique = [...new Map(data.excluded_points.map((p) => [`${p[0]}:${p[1]}`, p] as const)).values()];
-    let flat: number[];
-    try {
-      flat = toFlatIndices(curves, unique);
-    } catch (e) {
-      throw new AppError('invalid_input', `Cannot leave that point out: ${(e as Error).message}.`);
-    }
+    const flat = toFlatIndices(curves, unique);
     const result = fitCurveFamily(toCurveFamily(curves), {
       vdsTestV: type.vdsTestV,
       excludedPoints: flat,
       ...(sweep.temperatureC !== null ? { temperatureC: sweep.temperatureC } : {}),
     });
     if (result.status !== 'fitted') {
-      throw new AppError('invalid_input', `With those ${unique.length} points left out no fit is possible: ${result.flags.map((f) => f.message).join(' ')} Leave fewer points out.`);
+      throw new AppError('refit_not_possible', { left: unique.length, flags: result.flags.map((f) => f.message) });
     }
     await tx.update(schema.sweep).set({ excludedPoints: unique }).where(eq(schema.sweep.id, sweep.id));
     const [created] = await tx

@@ -13,7 +13,7 @@ export async function revokeStationToken({ actor, input }: { actor: Actor | null
   const { id } = RevokeStationInput.parse(input);
   return getDb().transaction(async (tx) => {
     const [row] = await tx.select().from(schema.stationToken).where(eq(schema.stationToken.id, id)).for('update');
-    if (!row) throw new AppError('not_found', 'No station token with that id; it may have been removed.');
+    if (!row) throw new AppError('station_token_not_found');
     if (row.revokedAt) return { id, revoked_at: row.revokedAt.toISOString() };
     const revokedAt = new Date();
     await tx.update(schema.stationToken).set({ revokedAt }).where(eq(schema.stationToken.id, id));

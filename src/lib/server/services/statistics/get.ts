@@ -20,7 +20,7 @@ async function findDeviceType(db: DbOrTx, ref: string) {
     const byId = await db.select().from(schema.deviceType).where(eq(schema.deviceType.id, Number(ref))).limit(1);
     if (byId[0]) return byId[0];
   }
-  throw new AppError('not_found', `No device type '${ref}' (device_type). Give a type name as listed under Device types.`, {
+  throw new AppError('statistics_type_unknown', { ref }, {
     fields: [{ field: 'device_type', message: `no device type named '${ref}'` }],
   });
 }
@@ -32,7 +32,7 @@ async function findLot(db: DbOrTx, ref: string) {
     const byId = await db.select().from(schema.lot).where(eq(schema.lot.id, Number(ref))).limit(1);
     if (byId[0]) return byId[0];
   }
-  throw new AppError('not_found', `No lot '${ref}' (lot). Give a lot code as listed under Lots.`, {
+  throw new AppError('statistics_lot_unknown', { ref }, {
     fields: [{ field: 'lot', message: `no lot with code '${ref}'` }],
   });
 }
@@ -86,7 +86,7 @@ export async function getStatistics({ actor, input }: { actor: Actor | null; inp
   const type = q.device_type ? await findDeviceType(db, q.device_type) : null;
   const lot = q.lot ? await findLot(db, q.lot) : null;
   if (type && lot && lot.deviceTypeId !== type.id) {
-    throw new AppError('invalid_input', `Lot ${lot.code} holds another device type than ${type.name} (lot). Clear one of the two.`, {
+    throw new AppError('statistics_lot_of_other_type', { lot: lot.code, typeName: type.name }, {
       fields: [{ field: 'lot', message: `lot ${lot.code} is not of device type ${type.name}` }],
     });
   }

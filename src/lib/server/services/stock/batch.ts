@@ -33,11 +33,7 @@ export async function lockPartsBySerial(tx: DbOrTx, serials: readonly string[]):
   const known = new Set(rows.map((r) => r.serial));
   const unknown = serials.filter((s) => !known.has(s));
   if (unknown.length) {
-    throw new AppError(
-      'not_found',
-      `Nothing was changed: ${unknown.length === 1 ? 'serial' : 'serials'} ${unknown.join(', ')} ${unknown.length === 1 ? 'is' : 'are'} not known. Check the label, or upload the part's sweep first.`,
-      { unknown },
-    );
+    throw new AppError('serials_unknown_in_batch', { serials: unknown }, { unknown });
   }
   return lockPartsById(tx, rows.map((r) => r.id));
 }
@@ -75,7 +71,7 @@ export interface Refusal {
 
 /** Refuses the whole batch, naming each part and why, in the status service's format. */
 export function refuseBatch(refused: Refusal[]): never {
-  throw new AppError('invalid_transition', `Nothing was changed: ${refused.map((r) => `${r.serial} — ${r.reason}`).join('; ')}.`, { refused });
+  throw new AppError('status_change_refused', { refused }, { refused });
 }
 
 export function statusWords(s: PartStatus): string {
@@ -95,12 +91,9 @@ export async function resolveLocation(
     .from(schema.location)
     .where(and(where));
   if (!row) {
-    throw new AppError(
-      'not_found',
-      ref.location_id !== undefined
-        ? `There is no location with id ${ref.location_id}.`
-        : `No location has the barcode ${ref.location_barcode}. Scan a location label, or create the location first.`,
-    );
+    throw ref.location_id !== undefined
+      ? new AppError('location_not_found', { id: ref.location_id })
+      : new AppError('location_barcode_not_found', { barcode: ref.location_barcode! });
   }
   return row;
 }

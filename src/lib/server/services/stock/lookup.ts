@@ -30,7 +30,7 @@ const home = alias(schema.location, 'home_location');
 export async function lookupPart({ actor, serial }: { actor: Actor | null; serial: string }): Promise<PartLookup> {
   requirePermission(actor, 'stock:read');
   const s = cleanScannedSerial(z.string().max(200).parse(serial));
-  if (!s) throw new AppError('invalid_input', 'Scan or type a serial.');
+  if (!s) throw new AppError('serial_missing');
   const [r] = await getDb()
     .select({
       serial: schema.part.serial,
@@ -54,7 +54,7 @@ export async function lookupPart({ actor, serial }: { actor: Actor | null; seria
     .leftJoin(home, eq(home.id, schema.bin.homeLocationId))
     .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .where(eq(schema.part.serial, s));
-  if (!r) throw new AppError('not_found', `Serial ${s} is not known. Check the label, or upload the part's sweep first.`);
+  if (!r) throw new AppError('serial_unknown', { serial: s });
   const next = allowedNextStatuses(r.status);
   const binned = r.binCode !== null && Boolean(r.active);
   return {

@@ -29,7 +29,7 @@ export async function receiveParts({ actor, input }: { actor: Actor | null; inpu
         .select({ id: schema.lot.id, code: schema.lot.code })
         .from(schema.lot)
         .where(/^\d+$/.test(lotRef) ? eq(schema.lot.id, Number(lotRef)) : eq(schema.lot.code, lotRef));
-      if (!lot) throw new AppError('not_found', `There is no lot "${lotRef}".`);
+      if (!lot) throw new AppError('lot_not_found', { ref: lotRef });
       const ids = await tx
         .select({ id: schema.part.id })
         .from(schema.part)
@@ -37,7 +37,7 @@ export async function receiveParts({ actor, input }: { actor: Actor | null; inpu
       parts = await lockPartsById(tx, ids.map((r) => r.id));
       // Another batch may have taken some between the look-up and the lock.
       parts = parts.filter((p) => p.status === 'accepted');
-      if (parts.length === 0) throw new AppError('invalid_input', `Lot ${lot.code} has no accepted parts waiting to be received.`);
+      if (parts.length === 0) throw new AppError('lot_nothing_to_receive', { code: lot.code });
     }
     const refused: Refusal[] = [];
     for (const p of parts) {

@@ -1,3 +1,4 @@
+import { AppError } from '~/core/errors';
 import type { CurveFamily } from '~/core/fit/definitions';
 import type { SweepCurve } from '~/core/sweep-file';
 
@@ -28,7 +29,7 @@ export function toFlatIndices(curves: readonly StoredCurve[], pairs: readonly (r
   return pairs.map(([ci, pi]) => {
     const c = curves[ci];
     if (!c || pi < 0 || pi >= c.vds_v.length || !Number.isInteger(pi)) {
-      throw new RangeError(`point [${ci}, ${pi}] is not in this sweep (it has ${curves.length} curves)`);
+      throw new AppError('point_not_in_sweep', { curve: ci, point: pi, curves: curves.length });
     }
     return offsets[ci] + pi;
   });

@@ -38,7 +38,7 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
   const db = getDb();
   const [upload] = await db.select().from(schema.upload).where(eq(schema.upload.id, uploadId));
   if (!upload || !maySeeUpload(actor, upload)) {
-    throw new AppError('not_found', `No upload ${uploadId}. Check the id that POST /api/sweeps returned.`);
+    throw new AppError('upload_not_found', { id: uploadId });
   }
   const files = await db.select().from(schema.uploadFile).where(eq(schema.uploadFile.uploadId, uploadId)).orderBy(asc(schema.uploadFile.id));
   const originalIds = [...new Set(files.map((f) => f.duplicateOfId).filter((x): x is number => x !== null))];

@@ -93,12 +93,12 @@ export async function mailLotSummary({ actor, id, input }: { actor: Actor | null
   const summary = await getUploadLotSummary({ actor, id });
   const lot = summary.lots.find((l) => l.lot === data.lot);
   if (!lot) {
-    throw new AppError('not_found', `Upload ${summary.upload_id.slice(0, 8)} has no files of lot ${data.lot}. Lots in it: ${summary.lots.map((l) => l.lot ?? '(not known)').join(', ')}.`);
+    throw new AppError('upload_lot_absent', { upload: summary.upload_id.slice(0, 8), lot: data.lot, lots: summary.lots.map((l) => l.lot ?? '(not known)') });
   }
-  if (!summary.done) throw new AppError('conflict', `Some files of upload ${summary.upload_id.slice(0, 8)} are still being fitted; mail the summary once all are done.`);
+  if (!summary.done) throw new AppError('upload_still_fitting', { upload: summary.upload_id.slice(0, 8) });
   const db = getDb();
   const [row] = await db.select().from(schema.lot).where(eq(schema.lot.code, data.lot));
-  if (!row) throw new AppError('not_found', `Lot ${data.lot} is not known: create it first, then mail its summary.`);
+  if (!row) throw new AppError('lot_summary_lot_unknown', { lot: data.lot });
   const [me] = actor.userId ? await db.select({ name: schema.user.name, email: schema.user.email }).from(schema.user).where(eq(schema.user.id, actor.userId)) : [];
   const sender = me ? `${me.name} <${me.email}>` : actor.label;
   const subject = `Incoming inspection: lot ${data.lot} — ${lot.fitted} fitted, ${lot.needs_review} flagged, ${lot.rejected} refused`;
@@ -112,7 +112,7 @@ export async function mailLotSummary({ actor, id, input }: { actor: Actor | null
   try {
     await deliverMail({ to: data.to, subject, text });
   } catch (err) {
-    throw new AppError('internal', `The mail server did not take the message to ${data.to} (${(err as Error).message}). Nothing was sent; try again later.`);
+    throw new AppError('mail_not_taken', { to: data.to, reason: (err as Error).message });
   }
   await db.transaction(async (tx) => {
     if (row.supplierEmail !== data.to) {

@@ -46,16 +46,16 @@ export async function receiveSweepUpload({
   requirePermission(actor, 'sweeps:upload');
   const parsedTags = UploadTags.parse(tags ?? {});
   if (files.length === 0) {
-    throw new AppError('invalid_input', 'The request has no files: send multipart/form-data with one or more fields named "file".');
+    throw new AppError('upload_has_no_files');
   }
   if (files.length > MAX_FILES_PER_UPLOAD) {
-    throw new AppError('too_large', `The request has ${files.length} files; at most ${MAX_FILES_PER_UPLOAD} are taken at once. Send them in several requests.`, { limit_files: MAX_FILES_PER_UPLOAD });
+    throw new AppError('upload_too_many_files', { files: files.length, max: MAX_FILES_PER_UPLOAD }, { limit_files: MAX_FILES_PER_UPLOAD });
   }
 
   // Refused before any byte is kept: a name PostgreSQL cannot store would leave a raw file with no row.
   const nulName = files.findIndex((f) => f.name.includes('\u0000'));
   if (nulName >= 0) {
-    throw new AppError('invalid_input', `File ${nulName + 1} of the request has a name with a NUL character ("${files[nulName].name.replace(/\u0000/g, '\\0')}"), which Sluice cannot store. Rename the file and send it again; nothing of this request was kept.`);
+    throw new AppError('upload_file_name_nul', { position: nulName + 1, shownName: files[nulName].name.replace(/\u0000/g, '\\0') });
   }
   const stored = await Promise.all(files.map((f) => storeUploadBytes(f.bytes)));
   const db = getDb();

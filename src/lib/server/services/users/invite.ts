@@ -16,7 +16,7 @@ export async function inviteUser({ actor, input }: { actor: Actor | null; input:
   const data = InviteUserInput.parse(input);
   const db = getDb();
   const existing = await db.select({ id: schema.user.id }).from(schema.user).where(eq(schema.user.email, data.email));
-  if (existing.length) throw new AppError('conflict', `${data.email} already has an account.`);
+  if (existing.length) throw new AppError('email_taken', { email: data.email });
 
   const auth = getAuth();
   const created = await auth.api.createUser({

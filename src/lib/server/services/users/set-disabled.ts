@@ -9,10 +9,10 @@ import { SetDisabledInput } from './schemas';
 export async function setUserDisabled({ actor, input }: { actor: Actor | null; input: unknown }) {
   requirePermission(actor, 'users:manage');
   const data = SetDisabledInput.parse(input);
-  if (data.userId === actor.userId) throw new AppError('conflict', 'You cannot disable your own account.');
+  if (data.userId === actor.userId) throw new AppError('own_account_disabled');
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.user).where(eq(schema.user.id, data.userId)).for('update');
-    if (!before) throw new AppError('not_found', 'No such person.');
+    if (!before) throw new AppError('person_not_found');
     await tx
       .update(schema.user)
       .set({ banned: data.disabled, banReason: data.disabled ? (data.reason ?? 'disabled by an admin') : null, updatedAt: new Date() })

@@ -10,11 +10,11 @@ export async function setUserRoles({ actor, input }: { actor: Actor | null; inpu
   requirePermission(actor, 'users:manage');
   const data = SetRolesInput.parse(input);
   if (data.userId === actor.userId && !data.roles.includes('admin')) {
-    throw new AppError('conflict', 'You cannot remove your own admin role; ask another admin.');
+    throw new AppError('own_admin_role');
   }
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.user).where(eq(schema.user.id, data.userId)).for('update');
-    if (!before) throw new AppError('not_found', 'No such person.');
+    if (!before) throw new AppError('person_not_found');
     await tx.update(schema.user).set({ role: data.roles.join(','), updatedAt: new Date() }).where(eq(schema.user.id, data.userId));
     await writeAudit(tx, actor, {
       action: 'user.set_roles',
