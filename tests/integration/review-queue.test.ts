@@ -97,6 +97,26 @@ describe('actions', () => {
     expect(res.status).toBe(400);
     expect((await res.json()).error.message).toContain('[42, 0]');
   });
+  it('a refit of stored curves no fit can read is refused (422) with the reason, not a server fault', async () => {
+    const db = getDb();
+    const [part] = await db.select().from(schema.part).where(eq(schema.part.serial, heated));
+    const [fit] = await db.select().from(schema.fit).where(eq(schema.fit.id, part.currentFitId!));
+    const [sweep] = await db.select().from(schema.sweep).where(eq(schema.sweep.id, fit.sweepId));
+    const curves = sweep.curves as { vgs_v: number; vds_v: number[]; id_a: number[] }[];
+    // One ID value short on the first curve: the shape no stored sweep should have.
+    const malformed = curves.map((c, i) => (i === 0 ? { ...c, id_a: c.id_a.slice(1) } : c));
+    await db.update(schema.sweep).set({ curves: malformed }).where(eq(schema.sweep.id, sweep.id));
+    try {
+      const res = await inspector.fetch(`/api/review/${heated}/refit`, { method: 'POST', json: { excluded_points: [] } });
+      expect(res.status).toBe(422);
+      const { error } = await res.json();
+      expect(error.code).toBe('unprocessable');
+      expect(error.reason).toBe('curve_family_shape');
+      expect(error.message).toMatch(/^Curve 0 has \d+ VDS values and \d+ ID values/);
+    } finally {
+      await db.update(schema.sweep).set({ curves }).where(eq(schema.sweep.id, sweep.id));
+    }
+  });
   it('accept: the part becomes accepted, the fit is marked accepted by the inspector, with audit rows', async () => {
     const p = await (await inspector.fetch(`/api/parts/${heated}`)).json();
     const res = await inspector.fetch(`/api/review/${heated}/accept`, { method: 'POST', json: { fit_id: p.fit_id, note: 'checked by hand' } });

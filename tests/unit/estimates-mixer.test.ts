@@ -150,7 +150,7 @@ describe('validation and warnings', () => {
 
   it('says what was expected', () => {
     expect(() => estimateMixer({ ...good, channel: 'p' })).toThrowErrorMatchingInlineSnapshot(
-      `[EstimateInputError: The stage estimate cannot be computed: vpV: expected a positive pinch-off for a p-channel part (datasheet sign), got -4. Correct the inputs and try again.]`,
+      `[EstimateInputError: The stage estimate cannot be computed — vpV: expected a positive pinch-off for a p-channel part (datasheet sign), got -4. Correct the inputs and try again.]`,
     );
   });
 

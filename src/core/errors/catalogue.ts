@@ -102,6 +102,7 @@ export const ERROR_CATALOGUE = {
       'BETTER_AUTH_SECRET is not set. `npm start` generates one in .data/secrets.env on first run; when running the server by hand, export it from there.',
   },
   json_rows_bad_column: { kind: 'internal', message: (p: { helper: string; column: string }) => `${p.helper}: ${p.column} is not a column of this table` },
+  notice_channel_name: { kind: 'internal', message: (p: { channel: string }) => `not a plain channel name: ${p.channel}` },
   json_rows_uneven_keys: {
     kind: 'internal',
     message: (p: { column: string }) => `jsonRecordset: every row must set the same keys; ${p.column} is not set in the first`,
