@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { formatDateTime } from '~/core/units/format-date';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 interface StationRow {

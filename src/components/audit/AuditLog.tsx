@@ -1,7 +1,7 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import type { AuditLogPage } from '~/contracts/audit';
 import { auditActionWords } from '~/core/audit/describe-audit-entry';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import AuditTrail from './AuditTrail';
 

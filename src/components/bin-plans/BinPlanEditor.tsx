@@ -1,7 +1,8 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { BinPlanActivated, BinPlanList, BinPlanPreview } from '~/contracts/bin-plans';
+import type { BinPlanActivated, BinPlanPreview } from '~/contracts/bin-plans';
 import type { BinQuantity } from '~/core/binning';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useBinPlans, useInvalidate } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { formatDate } from '~/core/units/format-date';
 import { axisToForm, defaultAxes, formToPlan, QUANTITY_NAMES, type AxisForm } from './plan-form';
@@ -51,7 +52,8 @@ function AxisEditor({ axis, index, onChange, onRemove }: { axis: AxisForm; index
 }
 
 export default function BinPlanEditor() {
-  const { data, error, loading, reload } = useApi<BinPlanList>('/api/bin-plans');
+  const { data, error, loading, reload } = useBinPlans();
+  const invalidate = useInvalidate();
   const [typeName, setTypeName] = useState('');
   const [axes, setAxes] = useState<AxisForm[]>([]);
   const [name, setName] = useState('');
@@ -99,7 +101,8 @@ export default function BinPlanEditor() {
       });
       setMessage({ ok: true, text: `Version ${r.plan.version} of ${typeName} is active: ${r.moved_count} parts re-binned, ${r.newly_binned_count} binned for the first time. Print new labels for changed bins.` });
       setPreview(undefined);
-      reload();
+      // Activation re-bins parts: bin stock and part rows shown elsewhere on the page change too.
+      void invalidate('bin-plans', 'bins', 'parts');
     } catch (e) {
       setMessage({ ok: false, text: (e as Error).message });
     } finally {

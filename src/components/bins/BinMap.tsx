@@ -1,6 +1,6 @@
 import { useCallback, useContext, useEffect, useMemo, useRef, useState } from 'react';
 import { Axis, DataContext, GlyphSeries, Grid, XYChart, buildChartTheme } from '@visx/xychart';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { gridCells, mapExtent, type GridCell, type MapBin } from './bin-grid';
 import BinPartsList from './BinPartsList';

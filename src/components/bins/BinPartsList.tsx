@@ -1,5 +1,5 @@
 import { formatQuantity } from '~/core/units/format-quantity';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import type { MapBin } from './bin-grid';
 

@@ -8,7 +8,8 @@ import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file/limits';
 import CurveThumbnail from '../charts/CurveThumbnail';
 import type { PartJson } from '../parts/part-types';
 import { q } from '../parts/figures';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice } from '../ui/states';
 import { retryWords, uppyVerdict, unknownLotOf } from '~/core/intake/upload-verdict';
 

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 interface BinRow {

@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import type { MatchableType, ProposalView, ProposedSet } from '~/contracts/match';
-import { ApiError, apiFetch, useApi } from '../ui/api-client';
+import { ApiError, apiFetch } from '../ui/api-client';
+import { useMatchableTypes } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { COMMON_PRACTICE_GRADES, proposalVerdict, setGradeWarnings, toleranceWarnings, type AskedTolerances } from '~/core/match/grade-warnings';
 import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
@@ -243,7 +244,7 @@ function Looser({ p }: { p: ProposalView }) {
 }
 
 export default function MatchRequest() {
-  const types = useApi<{ device_types: MatchableType[] }>('/api/match/device-types');
+  const types = useMatchableTypes();
   const [form, setForm] = useState<FormState>(INITIAL);
   const [busy, setBusy] = useState(false);
   const [proposal, setProposal] = useState<ProposalView>();

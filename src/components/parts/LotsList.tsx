@@ -1,7 +1,8 @@
 import { useState, type FormEvent } from 'react';
 import { when } from './figures';
 import { STATUS_WORDS, statusClass } from './part-types';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 interface LotRow {

@@ -5,7 +5,7 @@ import { pointKey } from '../charts/chart-data';
 import AuditTrail from '../audit/AuditTrail';
 import OperatingFiguresPanel from './OperatingFiguresPanel';
 import ReviewActions from '../review/ReviewActions';
-import { useApi } from '../ui/api-client';
+import { usePart } from '../api';
 import { ErrorNotice, Loading } from '../ui/states';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { formatMeasuredNumber, formatSignificant } from '~/core/units/format-quantity';
@@ -113,7 +113,7 @@ function ModelCard({ part }: { part: PartJson }) {
 }
 
 export default function PartDetail({ serial, mode = 'view' }: { serial: string; mode?: 'view' | 'review' }) {
-  const { data: part, error, loading, reload } = useApi<PartJson>(`/api/parts/${encodeURIComponent(serial)}`);
+  const { data: part, error, loading, reload } = usePart(serial);
   const [pending, setPending] = useState<Set<string> | null>(null);
 
   const flagged = useMemo(() => (part ? flagExcludedKeys(part) : new Set<string>()), [part]);

@@ -3,31 +3,8 @@ import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat } from '~/core/units/format-quantity';
 import { percent } from './figures';
 import { flagWord, STATUS_WORDS, statusClass } from './part-types';
-import { useApi } from '../ui/api-client';
+import { useParts } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface PartRow {
-  serial: string;
-  channel: 'n' | 'p';
-  status: string;
-  device_type: string;
-  lot: string | null;
-  bin_code: string | null;
-  location: string | null;
-  idss_a: number | null;
-  idss_vds_v: number | null;
-  vp_v: number | null;
-  gfs_s: number | null;
-  rms_rel: number | null;
-  flags: string[];
-}
-interface PartsPage {
-  page: number;
-  page_size: number;
-  total: number;
-  page_count: number;
-  parts: PartRow[];
-}
 
 const FILTERS = ['q', 'status', 'device_type', 'lot', 'bin'] as const;
 type Filters = Partial<Record<(typeof FILTERS)[number] | 'page', string>>;
@@ -48,7 +25,7 @@ export default function PartsList({ deviceTypes, lots }: { deviceTypes: string[]
   const [filters, setFilters] = useState<Filters>({});
   useEffect(() => setFilters(readFilters()), []);
   const query = new URLSearchParams({ ...filters, page_size: '50' } as Record<string, string>).toString();
-  const { data, error, loading, reload } = useApi<PartsPage>(`/api/parts?${query}`);
+  const { data, error, loading, reload } = useParts(query);
 
   function apply(next: Filters) {
     setFilters(next);

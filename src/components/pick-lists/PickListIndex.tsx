@@ -2,7 +2,7 @@ import { useState } from 'react';
 import TabStrip from '../ui/TabStrip';
 import type { PickListSummary } from '~/lib/server/services/pick-lists/list';
 import { STATUS_TAG, dateTime, relativeTo } from '../match/figures';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 const FILTERS = [

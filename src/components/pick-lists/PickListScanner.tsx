@@ -2,7 +2,8 @@ import { useEffect, useRef, useState, type FormEvent } from 'react';
 import type { PickListView } from '~/lib/server/services/pick-lists/pick-list-view';
 import { formatTime } from '~/core/units/format-date';
 import { STATUS_TAG, dateTime, relativeTo, roleLabel } from '../match/figures';
-import { ApiError, apiFetch, useApi } from '../ui/api-client';
+import { ApiError, apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { ErrorNotice, Loading } from '../ui/states';
 
 interface ScanAnswer {

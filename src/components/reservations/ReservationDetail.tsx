@@ -3,7 +3,8 @@ import type { ReservationView } from '~/lib/server/services/reservations/reserva
 import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat } from '~/core/units/format-quantity';
 import { SHAPE_WORDS, STATUS_TAG, amps, dateTime, millivolts, percent, relativeTo, roleLabel, volts } from '../match/figures';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { ErrorNotice, Loading } from '../ui/states';
 
 type SetRow = { parts: { vgs_v: number; gm_s: number; idss_a: number }[] };

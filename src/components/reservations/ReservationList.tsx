@@ -1,6 +1,6 @@
 import type { ReservationSummary } from '~/lib/server/services/reservations/list';
 import { SHAPE_WORDS, STATUS_TAG, dateTime, relativeTo } from '../match/figures';
-import { useApi } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 export default function ReservationList() {

@@ -1,7 +1,8 @@
 import { useState } from 'react';
 import { percent, q, when } from '../parts/figures';
 import { flagWord } from '../parts/part-types';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import TabStrip from '../ui/TabStrip';
 

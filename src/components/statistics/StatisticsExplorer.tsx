@@ -1,10 +1,10 @@
 import { useMemo, useState, type CSSProperties, type FormEvent } from 'react';
-import type { StatisticsOptions, StatisticsReport, TypeStatistics } from '~/contracts/statistics';
+import type { TypeStatistics } from '~/contracts/statistics';
 import { formatDate } from '~/core/units/format-date';
 import { binShareGrid, type BinShareGrid } from '~/core/statistics/bin-share-grid';
 import { vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { formatMeasured, formatNumber, formatOpenRange, formatPercent, formatQuantityRange, formatSignificant, type QuantityUnit } from '~/core/units/format-quantity';
-import { useApi } from '../ui/api-client';
+import { useStatistics, useStatisticsOptions } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { ChartCard } from './chart-kit';
 import { DISPLAY, HistogramChart, ScatterChart, TrendChart, type DisplayKey } from './charts';
@@ -405,9 +405,9 @@ export default function StatisticsExplorer({ initial }: { initial: Partial<Selec
   const start: Selection = { device_type: '', lot: '', from: '', to: '', date_basis: 'fit', ...initial };
   const [draft, setDraft] = useState<Selection>(start);
   const [applied, setApplied] = useState<Selection>(start);
-  const options = useApi<StatisticsOptions>('/api/statistics/options');
+  const options = useStatisticsOptions();
   const query = toQuery(applied);
-  const report = useApi<StatisticsReport>(`/api/statistics${query ? `?${query}` : ''}`);
+  const report = useStatistics(query);
   const lots = useMemo(
     () => (options.data?.lots ?? []).filter((l) => !draft.device_type || l.device_type === draft.device_type),
     [options.data, draft.device_type],

@@ -1,6 +1,7 @@
 import { useEffect, useState } from 'react';
-import type { BinJson, BinSortKey, BinStockPage } from '~/contracts/bins';
-import { apiFetch, useApi } from '../ui/api-client';
+import type { BinJson, BinSortKey, UpdateBinInput } from '~/contracts/bins';
+import { apiFetch } from '../ui/api-client';
+import { useApi, useApiMutation, useBinStock } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 type BinRow = BinJson;
@@ -57,16 +58,12 @@ function EditableBin({ bin, locations, onSaved }: { bin: BinRow; locations: Loca
     setLocation(bin.location ? String(bin.location.id) : '');
   }, [bin.low_stock_threshold, bin.location?.id]);
   const dirty = threshold !== String(bin.low_stock_threshold) || location !== (bin.location ? String(bin.location.id) : '');
-  async function save() {
-    try {
-      await apiFetch(`/api/bins/${bin.id}`, {
-        method: 'PUT',
-        json: { low_stock_threshold: Number(threshold), home_location_id: location ? Number(location) : null },
-      });
-      onSaved(`Bin ${bin.code} saved.`, true);
-    } catch (e) {
-      onSaved((e as Error).message, false);
-    }
+  const update = useApiMutation((body: UpdateBinInput) => apiFetch<BinJson>(`/api/bins/${bin.id}`, { method: 'PUT', json: body }), ['bins']);
+  function save() {
+    update.mutate(
+      { low_stock_threshold: Number(threshold), home_location_id: location ? Number(location) : null },
+      { onSuccess: () => onSaved(`Bin ${bin.code} saved.`, true), onError: (e) => onSaved(e.message, false) },
+    );
   }
   return (
     <>
@@ -107,7 +104,7 @@ export default function BinStockTable({ deviceTypes, canEdit, initial }: { devic
   const [search, setSearch] = useState(f.q);
   const [message, setMessage] = useState<{ text: string; ok: boolean }>();
   const qs = queryString(f);
-  const { data, error, loading, reload } = useApi<BinStockPage>(`/api/bins?${qs}`);
+  const { data, error, loading, reload } = useBinStock(qs);
   const locations = useApi<{ locations: LocationOption[] }>('/api/locations');
   useEffect(() => {
     const t = setTimeout(() => setF((old) => (old.q === search ? old : { ...old, q: search, page: 1 })), 300);
@@ -181,7 +178,7 @@ export default function BinStockTable({ deviceTypes, canEdit, initial }: { devic
                   <td className="font-semibold whitespace-nowrap">{b.is_hold ? <span className="tag-held">{b.code}</span> : b.code}</td>
                   <td className="text-ink-soft">{b.label}</td>
                   {canEdit ? (
-                    <EditableBin bin={b} locations={locations.data?.locations ?? []} onSaved={(text, ok) => (setMessage({ text, ok }), ok && reload())} />
+                    <EditableBin bin={b} locations={locations.data?.locations ?? []} onSaved={(text, ok) => setMessage({ text, ok })} />
                   ) : (
                     <>
                       <td>{b.location?.name ?? <span className="text-ink-faint">not set</span>}</td>

@@ -1,5 +1,6 @@
 import { useState, type FormEvent } from 'react';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 interface LocationRow {

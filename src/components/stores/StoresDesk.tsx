@@ -1,5 +1,6 @@
 import { useState } from 'react';
-import { apiFetch, useApi } from '../ui/api-client';
+import { apiFetch } from '../ui/api-client';
+import { useApi } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import ScanBatch, { type StockAction } from './ScanBatch';
 import TabStrip from '../ui/TabStrip';

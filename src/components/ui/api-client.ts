@@ -1,4 +1,3 @@
-import { useCallback, useEffect, useState } from 'react';
 import { AppError } from '~/core/errors';
 
 /** The error body every Sluice API route returns. */
@@ -32,31 +31,3 @@ export async function apiFetch<T>(url: string, init: RequestInit & { json?: unkn
   return body as T;
 }
 
-export interface ApiState<T> {
-  data: T | undefined;
-  error: Error | undefined;
-  loading: boolean;
-  reload: () => void;
-}
-
-/** Loads `url` on mount and whenever it changes; `reload()` fetches again. */
-export function useApi<T>(url: string | null): ApiState<T> {
-  const [data, setData] = useState<T>();
-  const [error, setError] = useState<Error>();
-  const [loading, setLoading] = useState(url !== null);
-  const [tick, setTick] = useState(0);
-  useEffect(() => {
-    if (url === null) return;
-    let live = true;
-    setLoading(true);
-    apiFetch<T>(url)
-      .then((d) => live && (setData(d), setError(undefined)))
-      .catch((e: Error) => live && setError(e))
-      .finally(() => live && setLoading(false));
-    return () => {
-      live = false;
-    };
-  }, [url, tick]);
-  const reload = useCallback(() => setTick((t) => t + 1), []);
-  return { data, error, loading, reload };
-}
