@@ -1,10 +1,11 @@
 import {
-  allocateFigureArrays,
   evaluateIntoArrays,
   figuresAt,
   firstSlots,
+  reusedFigureArrays,
   type FigureArrays,
 } from './evaluate-at-operating-point';
+import { int32Scratch } from './scratch';
 import { chooseCascodeSets, type CascodeMember } from './choose-cascode-sets';
 import { chooseSymmetricSets } from './choose-symmetric-sets';
 import { MatchRequestError } from './match-request-error';
@@ -19,6 +20,9 @@ import type {
 } from './match-types';
 import type { PackingLimits } from './pack-disjoint-sets';
 import { measureSetMismatch, setCostFromMismatch } from './set-mismatch';
+
+const candidateScratch = int32Scratch();
+const lotScratch = int32Scratch();
 
 interface CoreSet {
   members: { u: number; role: MatchedPart['role']; cascodeIndex?: 0 | 1; figures: OperatingFigures }[];
@@ -67,9 +71,10 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
 
   const sameLot = input.options?.sameLot === true;
   const total = input.candidates.length;
-  const all = allocateFigureArrays(total);
-  const candidateOf = new Int32Array(total);
-  const lotAll = new Int32Array(total);
+  // Working arrays shared across requests: everything kept is copied out before returning.
+  const all = reusedFigureArrays(total);
+  const candidateOf = candidateScratch.take(total);
+  const lotAll = lotScratch.take(total, 0);
   let unusable: MatchResult['unusable'] = [];
   let m = 0;
   let figs: FigureArrays = all;

@@ -1,6 +1,7 @@
 import type { MatchTolerances } from './match-types';
 import { DVGS_GUARD_SIGMAS } from './set-mismatch';
 import { packDisjointSets, type CandidateSet, type PackingLimits } from './pack-disjoint-sets';
+import { float64Scratch, int32Scratch, uint32Scratch } from './scratch';
 
 /** Figures of the usable parts, one entry per part (typed arrays for large stocks). */
 export interface SymmetricStock {
@@ -25,6 +26,23 @@ export interface SymmetricSelection {
 }
 
 const MAX_SET_COST = 3;
+
+// Working arrays, reused across requests (see scratch.ts).
+const keyScratch = float64Scratch();
+const vScratch = float64Scratch();
+const gScratch = float64Scratch();
+const iScratch = float64Scratch();
+const sScratch = float64Scratch();
+const kScratch = float64Scratch();
+const shrinkScratch = float64Scratch();
+const qScratch = float64Scratch();
+const lotScratch = int32Scratch();
+const parentScratch = int32Scratch();
+const localScratch = int32Scratch();
+const thetaScratch = float64Scratch();
+const sortIdx = [uint32Scratch(), uint32Scratch()];
+const sortQ = [uint32Scratch(), uint32Scratch()];
+const sortCounts = new Uint32Array(65536);
 const QUAD_CANDIDATE_CAP = 400_000;
 
 /**
@@ -79,22 +97,22 @@ export function chooseSymmetricSets(
     key = stock.vgsV;
     gapForTheta = (t) => Math.min(t, 1) * maxDvgsV;
   } else if (tol.maxIdssMismatch < Infinity) {
-    key = stock.idssA.map(Math.log);
+    key = logOf(stock.idssA, keyScratch.take(n));
     gapForTheta = (t) => ratioGap(Math.min(t, 1) * tol.maxIdssMismatch);
   } else if (tol.maxGmMismatch < Infinity) {
-    key = stock.gmS.map(Math.log);
+    key = logOf(stock.gmS, keyScratch.take(n));
     gapForTheta = (t) => ratioGap(Math.min(t, 1) * tol.maxGmMismatch);
   } else {
     return takeAnyByLot(stock.lotCode, setSize, count);
   }
 
-  const order = sortIndicesByKey(key);
-  const K = new Float64Array(n);
-  const V = new Float64Array(n);
-  const G = new Float64Array(n);
-  const I = new Float64Array(n);
-  const L = new Int32Array(n);
-  const S = new Float64Array(n);
+  const order = sortIndicesByKey(key, true);
+  const K = kScratch.take(n);
+  const V = vScratch.take(n);
+  const G = gScratch.take(n);
+  const I = iScratch.take(n);
+  const L = lotScratch.take(n);
+  const S = sScratch.take(n);
   for (let r = 0; r < n; r++) {
     const o = order[r]!;
     S[r] = stock.vgsSigmaV ? stock.vgsSigmaV[o]! : 0;
@@ -110,7 +128,7 @@ export function chooseSymmetricSets(
   // with VGS as the key, part i's partners lie within gap − guard·σ_i of it.
   let shrink: Float64Array | null = null;
   if (guard > 0 && key === stock.vgsV) {
-    shrink = new Float64Array(n);
+    shrink = shrinkScratch.take(n);
     for (let r = 0; r < n; r++) shrink[r] = guard * S[r]!;
   }
   const term = (m: number, t: number) => (t === Infinity || m <= 0 ? 0 : t > 0 ? m / t : Infinity);
@@ -158,9 +176,9 @@ export function chooseSymmetricSets(
   };
 
   let theta = initialTheta(n, setSize, count, setCost, pairCost);
-  const q = new Float64Array(n);
-  const parent = new Int32Array(n).fill(-1);
-  const local = new Int32Array(n);
+  const q = qScratch.take(n);
+  const parent = parentScratch.take(n, -1);
+  const local = localScratch.take(n);
   const find = (x: number): number => {
     let r = x;
     while (parent[r] !== r) r = parent[r]!;
@@ -359,7 +377,8 @@ function initialTheta(
   setCost: (m: number[]) => number,
   pairCost: (i: number, j: number) => number,
 ): number {
-  const costs: number[] = [];
+  const all = thetaScratch.take(Math.max(n - setSize + 1, 0));
+  let found = 0;
   const m = new Array<number>(setSize);
   for (let r = 0; r + setSize <= n; r++) {
     let c: number;
@@ -368,14 +387,20 @@ function initialTheta(
       for (let t = 0; t < setSize; t++) m[t] = r + t;
       c = setCost(m);
     }
-    if (c < Infinity) costs.push(c);
+    if (c < Infinity) all[found++] = c;
   }
-  if (costs.length === 0) return 0.01;
-  const want = setSize === 2 ? Math.min(costs.length, 4 * count) - 1 : 0;
+  if (found === 0) return 0.01;
+  const costs = all.subarray(0, found);
+  const want = setSize === 2 ? Math.min(found, 4 * count) - 1 : 0;
   return Math.max(quickSelect(costs, want), 1e-9);
 }
 
-function quickSelect(a: number[], k: number): number {
+function logOf(x: Float64Array, out: Float64Array): Float64Array {
+  for (let i = 0; i < x.length; i++) out[i] = Math.log(x[i]!);
+  return out;
+}
+
+function quickSelect(a: Float64Array, k: number): number {
   let lo = 0;
   let hi = a.length - 1;
   while (lo < hi) {
@@ -482,9 +507,18 @@ function scanQuads(
  * pass on the exact key, which only ever moves parts that share a quantum; several times faster
  * than a comparator sort on 10⁵ parts.
  */
-function sortIndicesByKey(key: Float64Array): Uint32Array {
+function sortIndicesByKey(key: Float64Array, reuse = false): Uint32Array {
   const n = key.length;
-  let idx = new Uint32Array(n);
+  if (n < 1024) {
+    const small = new Uint32Array(n);
+    for (let i = 0; i < n; i++) small[i] = i;
+    return small.sort((a, b) => key[a]! - key[b]! || a - b);
+  }
+  // `reuse`: into the shared working arrays (the part order); else into fresh ones, which the
+  // caller may keep beside the part order (the component order).
+  const u32 = (k: number) => (reuse ? sortIdx[k]!.take(n) : new Uint32Array(n));
+  const q32 = (k: number) => (reuse ? sortQ[k]!.take(n) : new Uint32Array(n));
+  let idx = u32(0);
   for (let i = 0; i < n; i++) idx[i] = i;
   let min = Infinity;
   let max = -Infinity;
@@ -492,15 +526,16 @@ function sortIndicesByKey(key: Float64Array): Uint32Array {
     if (key[i]! < min) min = key[i]!;
     if (key[i]! > max) max = key[i]!;
   }
-  if (n < 1024 || !(max > min) || !Number.isFinite(max - min)) {
-    return idx.sort((a, b) => key[a]! - key[b]! || a - b);
+  if (!(max > min) || !Number.isFinite(max - min)) {
+    idx.sort((a, b) => key[a]! - key[b]! || a - b);
+    return idx;
   }
   const scale = 4294967295 / (max - min);
-  let q = new Uint32Array(n);
+  let q = q32(0);
   for (let i = 0; i < n; i++) q[i] = Math.min(4294967295, Math.floor((key[i]! - min) * scale));
-  let idx2 = new Uint32Array(n);
-  let q2 = new Uint32Array(n);
-  const counts = new Uint32Array(65536);
+  let idx2 = u32(1);
+  let q2 = q32(1);
+  const counts = sortCounts;
   for (const shift of [0, 16]) {
     counts.fill(0);
     for (let r = 0; r < n; r++) counts[(q[r]! >>> shift) & 0xffff]!++;

@@ -6,6 +6,7 @@ import {
   type PartFigures,
 } from '../operating-point/part-operating-figures';
 import type { OperatingFigures, OperatingPoint, PartEvaluation } from './match-types';
+import { float64Scratch, uint8Scratch } from './scratch';
 
 export { selfBiasDrainCurrentA } from '../operating-point/part-operating-figures';
 
@@ -23,17 +24,33 @@ export interface FigureArrays {
   temperatureShiftV: Float64Array;
 }
 
-export function allocateFigureArrays(n: number): FigureArrays {
+const shared = {
+  idA: float64Scratch(),
+  vgsV: float64Scratch(),
+  gmS: float64Scratch(),
+  gosS: float64Scratch(),
+  idssA: float64Scratch(),
+  vdsSatV: float64Scratch(),
+  vgsSigmaV: float64Scratch(),
+  measured: uint8Scratch(),
+  temperatureShiftV: float64Scratch(),
+};
+
+/**
+ * Figure arrays for `n` parts, the same memory every call (see scratch.ts): valid until the next
+ * call, for matching, which copies out what it keeps before it returns.
+ */
+export function reusedFigureArrays(n: number): FigureArrays {
   return {
-    idA: new Float64Array(n),
-    vgsV: new Float64Array(n),
-    gmS: new Float64Array(n),
-    gosS: new Float64Array(n),
-    idssA: new Float64Array(n),
-    vdsSatV: new Float64Array(n),
-    vgsSigmaV: new Float64Array(n),
-    measured: new Uint8Array(n),
-    temperatureShiftV: new Float64Array(n),
+    idA: shared.idA.take(n),
+    vgsV: shared.vgsV.take(n),
+    gmS: shared.gmS.take(n),
+    gosS: shared.gosS.take(n),
+    idssA: shared.idssA.take(n),
+    vdsSatV: shared.vdsSatV.take(n),
+    vgsSigmaV: shared.vgsSigmaV.take(n),
+    measured: shared.measured.take(n),
+    temperatureShiftV: shared.temperatureShiftV.take(n),
   };
 }
 

@@ -55,9 +55,20 @@ let si = new Float64Array(0);
 let sb = new Int32Array(0);
 let st: OperatingTable = { data: new Float64Array(0), offset: 0 };
 let sParams: JfetParams = { vtoV: -1, betaAPerV2: 1, lambdaPerV: 0, rsOhm: 0, rdOhm: 0 };
-let sVds = 0;
-let sX = 0;
 let sN = 0;
+// Scalars of the read in progress, in a typed array: a double kept in a module variable is
+// boxed afresh on every write, which at 100 000 parts a request keeps the collector busy.
+const reg = new Float64Array(10);
+const R_SVDS = 0;
+const R_SX = 1;
+const R_RT = 2;
+const R_PLV = 3;
+const R_PLGM = 4;
+const R_PLNOISE = 5;
+const R_PLSPREAD = 6;
+const R_BBV = 7;
+const R_BBGM = 8;
+const R_BBNOISE = 9;
 
 function ensureScratch(n: number) {
   if (n <= cap) return;
@@ -71,7 +82,6 @@ function ensureScratch(n: number) {
 export const measuredOut: MeasuredFigures = { idA: 0, vgsV: 0, gmS: 0, gosS: 0, vgsSigmaV: 0, idssA: NaN };
 // The last reading's bracket, for gos.
 let rLower = 0;
-let rT = 0;
 
 /**
  * Reads a part's figures at `op` from its operating table (see `OperatingTable`), for callers
@@ -163,7 +173,7 @@ export function readMeasuredInto(t: OperatingTable | null, params: JfetParams, o
 }
 
 function finish(): null {
-  measuredOut.gosS = gosAt(rLower, rT, measuredOut.idA);
+  measuredOut.gosS = gosAt(rLower, reg[R_RT]!, measuredOut.idA);
   return null;
 }
 
@@ -174,13 +184,13 @@ function collectStepsAt(t: OperatingTable, params: JfetParams, vds: number): num
   ensureScratch(steps);
   st = t;
   sParams = params;
-  sVds = vds;
-  sX = vds - d[t.offset + 2]!;
+  reg[R_SVDS] = vds;
+  reg[R_SX] = vds - d[t.offset + 2]!;
   let n = 0;
   for (let k = 0, o = t.offset + HEADER; k < steps; k++, o += STEP) {
     if (!(vds >= d[o + F_LO]! - VDS_TOLERANCE_V && vds <= d[o + F_HI]! + VDS_TOLERANCE_V)) continue;
     sv[n] = d[o + F_VGS]!;
-    si[n] = d[o + F_C0]! + sX * (d[o + F_C1]! + sX * d[o + F_C2]!);
+    si[n] = d[o + F_C0]! + reg[R_SX]! * (d[o + F_C1]! + reg[R_SX]! * d[o + F_C2]!);
     sb[n] = o;
     n++;
   }
@@ -192,14 +202,14 @@ function collectStepsAt(t: OperatingTable, params: JfetParams, vds: number): num
 function sigmaOf(j: number): number {
   const d = st.data;
   const o = sb[j]! + F_COV;
-  const x = sX;
+  const x = reg[R_SX]!;
   const variance = d[o]! + x * (2 * d[o + 1]! + x * (2 * d[o + 2]! + d[o + 3]! + x * (2 * d[o + 4]! + x * d[o + 5]!)));
   return Math.sqrt(Math.max(variance, 0));
 }
 
 /** δ = VGS(step) − VGS_model(ID(step)) for step j. */
 function deltaOf(j: number): number {
-  return sv[j]! - vgsAtCurrentV(sParams, si[j]!, sVds);
+  return sv[j]! - vgsAtCurrentV(sParams, si[j]!, reg[R_SVDS]!);
 }
 
 /**
@@ -208,7 +218,7 @@ function deltaOf(j: number): number {
  */
 function modelSlopeAt(i: number): number {
   const p = sParams;
-  return 0.5 / Math.sqrt(p.betaAPerV2 * (1 + p.lambdaPerV * sVds) * i) + p.rsOhm;
+  return 0.5 / Math.sqrt(p.betaAPerV2 * (1 + p.lambdaPerV * reg[R_SVDS]!) * i) + p.rsOhm;
 }
 
 const modelSlopeOf = (j: number) => modelSlopeAt(si[j]!);
@@ -217,7 +227,7 @@ const exponentOf = (j: number) => st.data[sb[j]! + F_EXP]!;
 
 /**
  * VGS where the family carries `idA` into `measuredOut` (idA, vgsV, gmS, vgsSigmaV) and the
- * bracket into rLower/rT: the mean of the two readings. False outside the steps.
+ * bracket into rLower and reg[R_RT]: the mean of the two readings. False outside the steps.
  */
 function atCurrent(idA: number): boolean {
   const n = sN;
@@ -226,25 +236,21 @@ function atCurrent(idA: number): boolean {
   while (k >= 0 && si[k]! > idA) k--;
   if (k < 0) return false;
   if (!powerLawReading(n, k, idA)) return false;
-  const pV = plV, pGm = plGm, pNoise = plNoise, pSpread = plSpread;
+  const pV = reg[R_PLV]!, pGm = reg[R_PLGM]!, pNoise = reg[R_PLNOISE]!, pSpread = reg[R_PLSPREAD]!;
   if (!backboneReading(n, k, idA)) return false;
-  const vgsV = (pV + bbV) / 2;
-  const methodSpreadV = Math.abs(pV - bbV) / 2;
-  const noiseV = Math.max(pNoise, bbNoise);
+  const vgsV = (pV + reg[R_BBV]!) / 2;
+  const methodSpreadV = Math.abs(pV - reg[R_BBV]!) / 2;
+  const noiseV = Math.max(pNoise, reg[R_BBNOISE]!);
   const floorV = INTERPOLATION_FLOOR_SHARE * (sv[k + 1]! - sv[k]!);
   measuredOut.idA = idA;
   measuredOut.vgsV = vgsV;
-  measuredOut.gmS = (pGm + bbGm) / 2;
+  measuredOut.gmS = (pGm + reg[R_BBGM]!) / 2;
   measuredOut.vgsSigmaV = Math.sqrt(noiseV * noiseV + pSpread * pSpread + methodSpreadV * methodSpreadV + floorV * floorV);
   rLower = k;
-  rT = Math.min(Math.max((vgsV - sv[k]!) / (sv[k + 1]! - sv[k]!), 0), 1);
+  reg[R_RT] = Math.min(Math.max((vgsV - sv[k]!) / (sv[k + 1]! - sv[k]!), 0), 1);
   return true;
 }
 
-let plV = 0;
-let plGm = 0;
-let plNoise = 0;
-let plSpread = 0;
 
 /** Reading 1 (see `readMeasuredFigures`) between steps k and k + 1, into pl*. */
 function powerLawReading(n: number, k: number, idA: number): boolean {
@@ -282,7 +288,7 @@ function powerLawReading(n: number, k: number, idA: number): boolean {
   for (let j = 0; j < 2; j++) {
     const m = j === 0 ? m0 : m1;
     if (j === 1 && m1 === m0) {
-      plSpread = 0;
+      reg[R_PLSPREAD] = 0;
       break;
     }
     const rm1 = Math.expm1(lr / m);
@@ -290,7 +296,7 @@ function powerLawReading(n: number, k: number, idA: number): boolean {
     const r = 1 + rm1;
     const vj = sv[a]! + (h * rm1) / Rm1;
     if (j === 0) v0 = vj;
-    else plSpread = Math.abs(v0 - vj) / 2;
+    else reg[R_PLSPREAD] = Math.abs(v0 - vj) / 2;
     v += vj;
     gm += (m * idA * Rm1) / (r * h);
     // ∂v/∂I at each anchor: ∂v/∂y · ∂y/∂I, with ∂y/∂I = y/(m·I).
@@ -300,24 +306,21 @@ function powerLawReading(n: number, k: number, idA: number): boolean {
   }
   // Mean of the two readings (one when both exponents are the same).
   const readings = m1 === m0 ? 1 : 2;
-  plV = v / readings;
-  plGm = gm / readings;
+  reg[R_PLV] = v / readings;
+  reg[R_PLGM] = gm / readings;
   const na = (dvdA / readings) * sigmaOf(a);
   const nb = (dvdB / readings) * sigmaOf(a + 1);
-  plNoise = Math.sqrt(na * na + nb * nb);
+  reg[R_PLNOISE] = Math.sqrt(na * na + nb * nb);
   return true;
 }
 
-let bbV = 0;
-let bbGm = 0;
-let bbNoise = 0;
 
 /** Reading 2 (see `readMeasuredFigures`): the model's VGS plus δ, quadratic in sqrt(ID), into bb*. */
 function backboneReading(n: number, k: number, idA: number): boolean {
   // Three conducting steps around the point: k…k + 2, or k − 1…k + 1 at the top.
   let b = k + 2 < n ? k : k - 1;
   while (b >= 0 && b + 2 < n && !(si[b]! > 0)) b++;
-  const model = vgsAtCurrentV(sParams, idA, sVds);
+  const model = vgsAtCurrentV(sParams, idA, reg[R_SVDS]!);
   const dModel = modelSlopeAt(idA);
   const u = Math.sqrt(idA);
   if (b < 0 || b + 2 >= n || !(si[b]! > 0)) {
@@ -329,11 +332,11 @@ function backboneReading(n: number, k: number, idA: number): boolean {
     const d0 = deltaOf(k);
     const d1 = deltaOf(k + 1);
     const dDelta = (d1 - d0) / (u1 - u0) / (2 * u);
-    bbV = model + (1 - w1) * d0 + w1 * d1;
-    bbGm = 1 / (dModel + dDelta);
+    reg[R_BBV] = model + (1 - w1) * d0 + w1 * d1;
+    reg[R_BBGM] = 1 / (dModel + dDelta);
     const n0 = (1 - w1) * modelSlopeOf(k) * sigmaOf(k);
     const n1 = w1 * modelSlopeOf(k + 1) * sigmaOf(k + 1);
-    bbNoise = Math.sqrt(n0 * n0 + n1 * n1);
+    reg[R_BBNOISE] = Math.sqrt(n0 * n0 + n1 * n1);
     return true;
   }
   const x0 = Math.sqrt(si[b]!);
@@ -349,12 +352,12 @@ function backboneReading(n: number, k: number, idA: number): boolean {
   const dl1 = (2 * u - x0 - x2) / ((x1 - x0) * (x1 - x2));
   const dl2 = (2 * u - x0 - x1) / ((x2 - x0) * (x2 - x1));
   const dDelta = (dl0 * d0 + dl1 * d1 + dl2 * d2) / (2 * u);
-  bbV = model + l0 * d0 + l1 * d1 + l2 * d2;
-  bbGm = 1 / (dModel + dDelta);
+  reg[R_BBV] = model + l0 * d0 + l1 * d1 + l2 * d2;
+  reg[R_BBGM] = 1 / (dModel + dDelta);
   const n0 = l0 * modelSlopeOf(b) * sigmaOf(b);
   const n1 = l1 * modelSlopeOf(b + 1) * sigmaOf(b + 1);
   const n2 = l2 * modelSlopeOf(b + 2) * sigmaOf(b + 2);
-  bbNoise = Math.sqrt(n0 * n0 + n1 * n1 + n2 * n2);
+  reg[R_BBNOISE] = Math.sqrt(n0 * n0 + n1 * n1 + n2 * n2);
   return true;
 }
 
@@ -362,7 +365,7 @@ function backboneReading(n: number, k: number, idA: number): boolean {
 function slopeOf(j: number): number {
   const d = st.data;
   const o = sb[j]!;
-  return d[o + F_C1]! + 2 * sX * d[o + F_C2]!;
+  return d[o + F_C1]! + 2 * reg[R_SX]! * d[o + F_C2]!;
 }
 
 /** gos at the reading: the bracketing steps' dID/dVDS per ampere, interpolated, times ID. */
