@@ -2,6 +2,7 @@ import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import { throttledErrorLog } from './connection-error-log';
 import { dbConfig } from './db-config';
+import { stopAllNoticeChannels } from './notices';
 import * as schema from './schema';
 
 const poolErrorLog = throttledErrorLog('[db] connection lost:');
@@ -59,6 +60,7 @@ export async function transactionWithClient<T>(work: (tx: Database, client: pg.P
 }
 
 export async function closeDb(): Promise<void> {
+  await stopAllNoticeChannels();
   await pool?.end();
   pool = undefined;
   database = undefined;

@@ -223,3 +223,49 @@ describe('match proposals on demo-like stock', () => {
     expect((await stores.fetch(`/api/match/proposals/${p.id}`)).status).toBe(403);
   });
 });
+
+describe('the candidate cache follows stock changes made anywhere', () => {
+  // The server keeps each type's in-stock candidates in memory and drops them when PostgreSQL
+  // announces a change (NOTIFY sluice_stock from a trigger on part, migration 0005). A change
+  // made behind the app's back, straight in SQL, must reach the next proposal all the same.
+  const ask = { device_type: 'WS-N30', shape: 'pair', count: 1, id_a: 0.001, vds_v: 10, max_dvgs_v: 0.01 };
+  const inStock = async () => (await propose(ask)).candidates.in_stock;
+  const settle = async (want: number) => {
+    // A notice reaches the server a moment after the commit; allow it that moment.
+    for (let i = 0; i < 40; i++) {
+      const n = await inStock();
+      if (n === want) return n;
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    return inStock();
+  };
+
+  it('a part taken out of stock and put back in SQL is counted out and in again', async () => {
+    const before = await inStock();
+    await inStock(); // the cache is built and current
+    const [part] = await getDb()
+      .select({ id: schema.part.id })
+      .from(schema.part)
+      .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+      .where(sql`${schema.deviceType.name} = 'WS-N30' AND ${schema.part.status} = 'in_stock'`)
+      .limit(1);
+    await getDb().execute(sql`UPDATE part SET status = 'quarantined' WHERE id = ${part!.id}`);
+    expect(await settle(before - 1)).toBe(before - 1);
+    await getDb().execute(sql`UPDATE part SET status = 'in_stock' WHERE id = ${part!.id}`);
+    expect(await settle(before)).toBe(before);
+  });
+
+  it('a change to the type itself (its temperature coefficients) reaches the next proposal', async () => {
+    const [type] = await getDb().select().from(schema.deviceType).where(eq(schema.deviceType.name, 'WS-N30'));
+    const shiftAt = async () => (await propose({ ...ask, temperature_c: 35 })).sets[0]!.parts[0]!.temperature_shift_v;
+    const first = await shiftAt();
+    await getDb().execute(sql`UPDATE device_type SET vtotc_v_per_c = ${type!.vtotcVPerC * 2} WHERE id = ${type!.id}`);
+    let later = await shiftAt();
+    for (let i = 0; i < 40 && later === first; i++) {
+      await new Promise((r) => setTimeout(r, 50));
+      later = await shiftAt();
+    }
+    await getDb().execute(sql`UPDATE device_type SET vtotc_v_per_c = ${type!.vtotcVPerC} WHERE id = ${type!.id}`);
+    expect(later).not.toBe(first);
+  });
+});

@@ -1,6 +1,7 @@
 import type { MatchCandidate } from '~/core/match/match-types';
 import { operatingTableFromBytes } from '~/core/operating-point/operating-table';
 import { getPool } from '~/db/client';
+import { listenForNotices, type NoticeChannel } from '~/db/notices';
 
 /**
  * The in-stock parts of one device type with their current fitted models, held in this server
@@ -9,7 +10,12 @@ import { getPool } from '~/db/client';
  * Each candidate carries what `partOperatingFigures` needs: the fitted model, the measurements'
  * operating table, the sweep's temperature and the type's temperature coefficients.
  *
- * Freshness: every request first reads the type's stock version — count, Σ id, Σ current fit,
+ * Freshness: the database announces every committed change to a part or a device type
+ * (NOTIFY sluice_stock with the type's id, migration 0005); while that channel is open an entry
+ * stays valid until a notice for its type arrives, and a request costs no query at all. A notice
+ * reaches the server a moment after its commit, so a request in that moment sees the stock as it
+ * was just before — as if it had come a moment earlier. Whenever the channel is closed, or has
+ * just (re)opened and notices may have been missed, each request first reads the type's stock version — count, Σ id, Σ current fit,
  * Σ bin, Σ lot and max(updated_at) over its in-stock parts — in one aggregate over the
  * (device_type_id, status) index, and rebuilds the entry when it differs. A part entering or
  * leaving stock changes the count or Σ id; a new fit, a bin change or a new lot changes its
@@ -30,10 +36,35 @@ export interface TypeStock {
   /** Serial → slot. */
   slotBySerial: Map<string, number>;
   builtAt: Date;
+  /** The notices seen when the entry was last known current (null: not listening then). */
+  noticeMark: string | null;
 }
 
 const entries = new Map<number, TypeStock>();
 const building = new Map<number, Promise<TypeStock>>();
+
+// Stock change notices: a count per type, and a count of gaps (times notices may have been missed).
+let channel: NoticeChannel | null = null;
+const noticesByType = new Map<number, number>();
+let gaps = 0;
+
+function stockNotices(): NoticeChannel {
+  if (!channel || channel.closed()) {
+    channel = listenForNotices('sluice_stock', {
+      onNotice: (payload) => {
+        const id = Number(payload);
+        noticesByType.set(id, (noticesByType.get(id) ?? 0) + 1);
+      },
+      onGap: () => void gaps++,
+    });
+  }
+  return channel;
+}
+
+/** What the channel has said about a type so far; null when it is not open. */
+function noticeMark(deviceTypeId: number): string | null {
+  return stockNotices().listening() ? `${gaps}:${noticesByType.get(deviceTypeId) ?? 0}` : null;
+}
 
 const VERSION_SQL = `
   SELECT count(*)::text || ':' || coalesce(sum(id), 0)::text || ':' || coalesce(sum(current_fit_id), 0)::text || ':' ||
@@ -57,6 +88,8 @@ export async function readStockVersion(deviceTypeId: number): Promise<string> {
 }
 
 async function build(deviceTypeId: number): Promise<TypeStock> {
+  // Taken before the snapshot: a change committed after it moves the mark, so a later request rebuilds.
+  const mark = noticeMark(deviceTypeId);
   const client = await getPool().connect();
   try {
     // One snapshot for the version and the rows, so the version describes exactly these rows.
@@ -94,7 +127,7 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
       };
       if (table) tableAt += table.byteLength / 8;
     }
-    return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date() };
+    return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date(), noticeMark: mark };
   } catch (err) {
     await client.query('ROLLBACK').catch(() => undefined);
     throw err;
@@ -108,9 +141,14 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
  * else a fresh load (concurrent requests for one type share one load). `rebuilt` says which.
  */
 export async function loadTypeStock(deviceTypeId: number): Promise<{ stock: TypeStock; rebuilt: boolean }> {
-  const version = await readStockVersion(deviceTypeId);
+  const mark = noticeMark(deviceTypeId);
   const cached = entries.get(deviceTypeId);
-  if (cached && cached.version === version) return { stock: cached, rebuilt: false };
+  if (mark !== null && cached && cached.noticeMark === mark) return { stock: cached, rebuilt: false };
+  const version = await readStockVersion(deviceTypeId);
+  if (cached && cached.version === version) {
+    cached.noticeMark = mark;
+    return { stock: cached, rebuilt: false };
+  }
   let pending = building.get(deviceTypeId);
   if (!pending) {
     pending = build(deviceTypeId).finally(() => building.delete(deviceTypeId));
