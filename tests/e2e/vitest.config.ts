@@ -1,7 +1,9 @@
 import { defineConfig } from 'vitest/config';
+import { fileURLToPath } from 'node:url';
 
 /** Browser tests: Debian's Chromium driven by playwright-core against the test server. */
 export default defineConfig({
+  resolve: { alias: { '~': fileURLToPath(new URL('../../src', import.meta.url)) } },
   test: {
     include: ['tests/e2e/**/*.test.ts'],
     testTimeout: 90_000,
