@@ -438,6 +438,15 @@ export const ERROR_CATALOGUE = {
       'The match request cannot be answered as asked: a cascode shares one drain current between its parts: give the operating point as a current (idA, vdsV).',
   },
   match_search_budget: { kind: 'internal', message: () => 'The exact set search went over its state budget.' },
+  match_thread_stock_missing: {
+    kind: 'internal',
+    message: (p: { key: number }) => `Stock ${p.key} was not sent to this figures thread before it was asked to evaluate it.`,
+  },
+  match_figures_mismatch: {
+    kind: 'internal',
+    message: (p: { candidates: number; figures: number }) =>
+      `Precomputed figures cover ${p.figures} parts but the match was given ${p.candidates}: the figures belong to another stock.`,
+  },
   stock_changing: { kind: 'conflict', message: () => 'Stock is changing too fast to propose sets right now; ask again in a moment.' },
   proposal_not_found: {
     kind: 'not_found',

@@ -1,4 +1,5 @@
 import {
+  copySlot,
   evaluateIntoArrays,
   figuresAt,
   firstSlots,
@@ -8,6 +9,7 @@ import {
 import { int32Scratch } from './scratch';
 import { chooseCascodeSets, type CascodeMember } from './choose-cascode-sets';
 import { chooseSymmetricSets } from './choose-symmetric-sets';
+import { AppError } from '../errors';
 import { MatchRequestError } from './match-request-error';
 import type {
   LooserToleranceCounts,
@@ -86,6 +88,10 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
   const prepare = (checkDuplicates: boolean) => {
     unusable = [];
     m = 0;
+    const given = input.evaluated;
+    if (given && (given.unusable.length !== total || given.figures.vgsV.length < total)) {
+      throw new AppError('match_figures_mismatch', { candidates: total, figures: given.unusable.length });
+    }
     const seen = new Set<string>();
     const lotCodes = new Map<string, number>();
     for (let i = 0; i < total; i++) {
@@ -98,7 +104,11 @@ export function chooseMatchedSets(input: MatchInput, limits?: PackingLimits): Ma
         unusable.push({ id: candidate.id, code: 'no_lot', reason: 'same-lot sets asked for, and this part has no lot' });
         continue;
       }
-      const bad = evaluateIntoArrays(candidate, op, all, m, input.temperatureC);
+      // Figures given for this candidate are copied; an unusable one is evaluated again for its reason.
+      const bad =
+        given && !given.unusable[i]
+          ? (copySlot(given.figures, i, all, m), null)
+          : evaluateIntoArrays(candidate, op, all, m, input.temperatureC);
       if (bad) {
         unusable.push({ id: candidate.id, code: bad.code, reason: bad.reason });
         continue;

@@ -107,20 +107,27 @@ export function chooseSymmetricSets(
   }
 
   const order = sortIndicesByKey(key, true);
-  const K = kScratch.take(n);
+  const { maxGmMismatch: maxG, maxIdssMismatch: maxI } = tol;
+  // Only what a tolerance constrains is gathered and read: an unconstrained figure adds nothing
+  // to any cost, and one lot for all needs no lot check. (Gathering in key order is random
+  // access over the stock, the dearest part of a large request.)
+  let lotsDiffer = false;
+  for (let i = 1; i < n && !lotsDiffer; i++) lotsDiffer = stock.lotCode[i] !== stock.lotCode[0];
   const V = vScratch.take(n);
-  const G = gScratch.take(n);
-  const I = iScratch.take(n);
-  const L = lotScratch.take(n);
   const S = sScratch.take(n);
+  const K = key === stock.vgsV ? V : kScratch.take(n);
+  const G = maxG < Infinity ? gScratch.take(n) : null;
+  const I = maxI < Infinity ? iScratch.take(n) : null;
+  const L = lotsDiffer ? lotScratch.take(n) : null;
+  const sigma = stock.vgsSigmaV;
   for (let r = 0; r < n; r++) {
     const o = order[r]!;
-    S[r] = stock.vgsSigmaV ? stock.vgsSigmaV[o]! : 0;
-    K[r] = key[o]!;
     V[r] = stock.vgsV[o]!;
-    G[r] = stock.gmS[o]!;
-    I[r] = stock.idssA[o]!;
-    L[r] = stock.lotCode[o]!;
+    S[r] = sigma ? sigma[o]! : 0;
+    if (K !== V) K[r] = key[o]!;
+    if (G) G[r] = stock.gmS[o]!;
+    if (I) I[r] = stock.idssA[o]!;
+    if (L) L[r] = stock.lotCode[o]!;
   }
   // The guard only ever adds to ΔVGS, so a set of cost ≤ θ still lies inside the VGS window.
   const guard = matchVgs ? DVGS_GUARD_SIGMAS : 0;
@@ -132,22 +139,27 @@ export function chooseSymmetricSets(
     for (let r = 0; r < n; r++) shrink[r] = guard * S[r]!;
   }
   const term = (m: number, t: number) => (t === Infinity || m <= 0 ? 0 : t > 0 ? m / t : Infinity);
-  const { maxGmMismatch: maxG, maxIdssMismatch: maxI } = tol;
 
   /** Cost of the set of sorted positions `m`, or Infinity when it is not valid. */
   const setCost = (m: readonly number[]): number => {
     let vMin = Infinity, vMax = -Infinity, gMin = Infinity, gMax = -Infinity;
     let iMin = Infinity, iMax = -Infinity;
-    const lot = L[m[0]!];
+    const lot = L ? L[m[0]!] : 0;
     for (const r of m) {
-      if (L[r] !== lot) return Infinity;
-      const v = V[r]!, g = G[r]!, i = I[r]!;
+      if (L && L[r] !== lot) return Infinity;
+      const v = V[r]!;
       if (v < vMin) vMin = v;
       if (v > vMax) vMax = v;
-      if (g < gMin) gMin = g;
-      if (g > gMax) gMax = g;
-      if (i < iMin) iMin = i;
-      if (i > iMax) iMax = i;
+      if (G) {
+        const g = G[r]!;
+        if (g < gMin) gMin = g;
+        if (g > gMax) gMax = g;
+      }
+      if (I) {
+        const i = I[r]!;
+        if (i < iMin) iMin = i;
+        if (i > iMax) iMax = i;
+      }
     }
     let dv = vMax - vMin;
     if (guard > 0) {
@@ -159,18 +171,26 @@ export function chooseSymmetricSets(
           dv = Math.max(dv, Math.abs(V[x]! - V[y]!) + guard * Math.sqrt(S[x]! * S[x]! + S[y]! * S[y]!));
         }
     }
-    const dg = 1 - gMin / gMax, di = 1 - iMin / iMax;
+    const dg = G ? 1 - gMin / gMax : 0;
+    const di = I ? 1 - iMin / iMax : 0;
     if (!(dv <= maxDvgsV && dg <= maxG && di <= maxI)) return Infinity;
     return term(dv, maxDvgsV) + term(dg, maxG) + term(di, maxI);
   };
 
   /** Cost of the pair at sorted positions i < j, or Infinity when it is not valid. */
   const pairCost = (i: number, j: number): number => {
-    if (L[i] !== L[j]) return Infinity;
+    if (L && L[i] !== L[j]) return Infinity;
     const dv = Math.abs(V[j]! - V[i]!) + guard * Math.sqrt(S[i]! * S[i]! + S[j]! * S[j]!);
-    const g0 = G[i]!, g1 = G[j]!, i0 = I[i]!, i1 = I[j]!;
-    const dg = g0 < g1 ? 1 - g0 / g1 : 1 - g1 / g0;
-    const di = i0 < i1 ? 1 - i0 / i1 : 1 - i1 / i0;
+    let dg = 0;
+    let di = 0;
+    if (G) {
+      const g0 = G[i]!, g1 = G[j]!;
+      dg = g0 < g1 ? 1 - g0 / g1 : 1 - g1 / g0;
+    }
+    if (I) {
+      const i0 = I[i]!, i1 = I[j]!;
+      di = i0 < i1 ? 1 - i0 / i1 : 1 - i1 / i0;
+    }
     if (!(dv <= maxDvgsV && dg <= maxG && di <= maxI)) return Infinity;
     return term(dv, maxDvgsV) + term(dg, maxG) + term(di, maxI);
   };

@@ -98,6 +98,37 @@ export function evaluateIntoArrays(
   return null;
 }
 
+/**
+ * Figures of `parts[from..to)` at `op` into the same slots of `out`; `unusable[i]` = 1 where
+ * part i cannot run there (its figures slot is then meaningless), else 0. The same numbers
+ * `evaluateIntoArrays` gives part by part, so a stock can be evaluated in slices, on several
+ * threads, and handed to `chooseMatchedSets` as `MatchInput.evaluated`.
+ */
+export function evaluateRange(
+  parts: readonly PartBasis[],
+  op: OperatingPoint,
+  compareAtC: number | undefined,
+  out: FigureArrays,
+  unusable: Uint8Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) unusable[i] = evaluateIntoArrays(parts[i]!, op, out, i, compareAtC) ? 1 : 0;
+}
+
+/** Copies slot `from` of `a` into slot `to` of `b`. */
+export function copySlot(a: FigureArrays, from: number, b: FigureArrays, to: number): void {
+  b.idA[to] = a.idA[from]!;
+  b.vgsV[to] = a.vgsV[from]!;
+  b.gmS[to] = a.gmS[from]!;
+  b.gosS[to] = a.gosS[from]!;
+  b.idssA[to] = a.idssA[from]!;
+  b.vdsSatV[to] = a.vdsSatV[from]!;
+  b.vgsSigmaV[to] = a.vgsSigmaV[from]!;
+  b.measured[to] = a.measured[from]!;
+  b.temperatureShiftV[to] = a.temperatureShiftV[from]!;
+}
+
 /** Slot `i` of `a` as one part's figures at |VDS| `vdsV`. */
 export function figuresAt(a: FigureArrays, i: number, vdsV: number): OperatingFigures {
   return {

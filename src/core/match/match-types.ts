@@ -1,4 +1,5 @@
 import type { FigureSource, PartBasis } from '../operating-point/part-operating-figures';
+import type { FigureArrays } from './evaluate-at-operating-point';
 
 /**
  * Where the designer runs the parts. All values N-equivalent and SI (A, V, Ω); a P-channel
@@ -51,6 +52,11 @@ export interface MatchInput {
   options?: { sameLot?: boolean };
   /** Parts are compared at this temperature (°C; 25 when absent). */
   temperatureC?: number;
+  /**
+   * The candidates' figures at this operating point and temperature, already computed
+   * (`evaluateRange` over every candidate, slot i for candidate i); absent: computed here.
+   */
+  evaluated?: { figures: FigureArrays; unusable: Uint8Array };
 }
 
 /** Figures of one part at the operating point it actually sees in its set. */

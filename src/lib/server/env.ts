@@ -1,3 +1,4 @@
+import os from 'node:os';
 import { z } from 'zod';
 import { AppError } from '~/core/errors';
 import { DbEnvSchema } from '~/db/db-config';
@@ -28,6 +29,8 @@ export const EnvSchema = z.object({
   SLUICE_RESERVATION_DAYS: z.coerce.number().positive().default(3),
   /** Parallel fitting fetch loops in each worker process. */
   SLUICE_FIT_LOOPS: z.coerce.number().int().nonnegative().default(2),
+  /** Extra threads that evaluate a large stock's figures for matching; 0 turns them off. */
+  SLUICE_MATCH_THREADS: z.coerce.number().int().min(0).max(16).optional(),
 });
 
 export interface ServerEnv {
@@ -48,6 +51,7 @@ export interface ServerEnv {
   signInFailureWindowS: number;
   reservationDays: number;
   fitLoops: number;
+  matchThreads: number;
 }
 
 let cached: ServerEnv | undefined;
@@ -89,6 +93,7 @@ export function serverEnv(): ServerEnv {
     signInFailureWindowS: Math.round(e.SLUICE_SIGN_IN_FAILURE_WINDOW_MINUTES * 60),
     reservationDays: e.SLUICE_RESERVATION_DAYS,
     fitLoops: e.SLUICE_FIT_LOOPS,
+    matchThreads: e.SLUICE_MATCH_THREADS ?? Math.min(Math.max(os.availableParallelism() - 1, 0), 3),
   };
   return cached;
 }

@@ -1,7 +1,9 @@
 import type { MatchCandidate } from '~/core/match/match-types';
+import type { TemperatureCoefficients } from '~/core/operating-point/part-operating-figures';
 import { operatingTableFromBytes } from '~/core/operating-point/operating-table';
 import { getPool } from '~/db/client';
 import { listenForNotices, type NoticeChannel } from '~/db/notices';
+import { BASIS_FLOATS, packBasis } from './packed-bases';
 
 /**
  * The in-stock parts of one device type with their current fitted models, held in this server
@@ -35,12 +37,17 @@ export interface TypeStock {
   candidates: MatchCandidate[];
   /** Serial → slot. */
   slotBySerial: Map<string, number>;
+  /** This build, among all builds in this process (worker threads key their copies by it). */
+  key: number;
+  /** The candidates' bases in shared memory (`packBasis`, slot i for candidate i). */
+  shared: { tables: Float64Array; bases: Float64Array };
   builtAt: Date;
   /** The notices seen when the entry was last known current (null: not listening then). */
   noticeMark: string | null;
 }
 
 const entries = new Map<number, TypeStock>();
+let builds = 0;
 const building = new Map<number, Promise<TypeStock>>();
 
 // Stock change notices: a count per type, and a count of gaps (times notices may have been missed).
@@ -105,7 +112,10 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
     // Every part's operating table in one array: one allocation for the whole stock.
     let tableBytes = 0;
     for (let i = 0; i < n; i++) tableBytes += (rows.rows[i] as unknown[])[9] ? ((rows.rows[i] as unknown[])[9] as Buffer).byteLength : 0;
-    const tableValues = new Float64Array(Math.ceil(tableBytes / 8));
+    // Shared memory, so a worker thread reads the same tables (parallel-figures.ts).
+    const tableValues = new Float64Array(new SharedArrayBuffer(8 * Math.ceil(tableBytes / 8)));
+    const packed = new Float64Array(new SharedArrayBuffer(8 * BASIS_FLOATS * n));
+    let tempco: TemperatureCoefficients | undefined;
     let tableAt = 0;
     for (let i = 0; i < n; i++) {
       const [id, serial, lotId, binId, vto, beta, lambda, rs, rd, table, modelSigma, measuredAtC, vtotc, betatce] = rows.rows[i] as [
@@ -115,6 +125,8 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
       partIds[i] = id;
       binIds[i] = binId ?? 0;
       slotBySerial.set(serial, i);
+      // One type, so one set of coefficients: shared by every candidate.
+      if (!tempco || tempco.vtotcVPerC !== vtotc || tempco.betatcePctPerC !== betatce) tempco = { vtotcVPerC: vtotc, betatcePctPerC: betatce };
       candidates[i] = {
         id: serial,
         lotId: lotId === null ? null : String(lotId),
@@ -122,12 +134,24 @@ async function build(deviceTypeId: number): Promise<TypeStock> {
         params: { vtoV: vto, betaAPerV2: beta, lambdaPerV: lambda, rsOhm: rs, rdOhm: rd },
         table: table ? operatingTableFromBytes(table, tableValues, tableAt) : null,
         measuredAtC,
-        tempco: { vtotcVPerC: vtotc, betatcePctPerC: betatce },
+        tempco,
         modelSigmaV: modelSigma ?? NaN,
       };
+      packBasis(candidates[i]!, packed, i);
       if (table) tableAt += table.byteLength / 8;
     }
-    return { deviceTypeId, version: v.rows[0]!.version, partIds, binIds, candidates, slotBySerial, builtAt: new Date(), noticeMark: mark };
+    return {
+      deviceTypeId,
+      key: ++builds,
+      version: v.rows[0]!.version,
+      partIds,
+      binIds,
+      candidates,
+      shared: { tables: tableValues, bases: packed },
+      slotBySerial,
+      builtAt: new Date(),
+      noticeMark: mark,
+    };
   } catch (err) {
     await client.query('ROLLBACK').catch(() => undefined);
     throw err;

@@ -5,6 +5,7 @@ import { getDb, getPool, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadTypeStock, type TypeStock } from './candidate-cache';
+import { withStockFigures } from './parallel-figures';
 import { findDeviceType, resolveBinCodes, type MatchDeviceType } from './device-type';
 import { ProposalRequest, type ProposalView, type ProposedSet } from '~/contracts/match';
 import type { PartJson } from '~/contracts/parts';
@@ -89,7 +90,10 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
   let result: MatchResult | undefined;
   let fresh = new Map<number, PartJson>();
   for (let attempt = 0; attempt < 3; attempt++) {
-    result = chooseMatchedSets({ candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c });
+    const input = { candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c };
+    const tc0 = performance.now();
+    result = await withStockFigures(stock, candidates, operatingPoint, req.temperature_c, (evaluated) => chooseMatchedSets({ ...input, evaluated }));
+    console.log('choose total', (performance.now() - tc0).toFixed(1), 'since start', (performance.now() - started).toFixed(1));
     const chosen = result.sets.flatMap((s) => s.parts.map((p) => stock.partIds[stock.slotBySerial.get(p.id)!]!));
     fresh = await readChosenParts(type, chosen);
     const gone = new Set(chosen.filter((id) => fresh.get(id)?.status !== 'in_stock'));
