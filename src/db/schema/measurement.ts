@@ -45,6 +45,8 @@ export const part = pgTable(
   },
   (t) => [
     index('part_type_status_idx').on(t.deviceTypeId, t.status),
+    // The parts list pages one type's parts in serial order.
+    index('part_type_serial_idx').on(t.deviceTypeId, t.serial),
     index('part_bin_status_idx').on(t.binId, t.status),
     index('part_lot_idx').on(t.lotId),
   ],

@@ -1,4 +1,4 @@
-import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, ilike, inArray, type SQL } from 'drizzle-orm';
 import { ListPartsQuery, type PartsPage } from '~/contracts/parts';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -12,36 +12,60 @@ function escapeLike(s: string): string {
 export async function listParts({ actor, input }: { actor: Actor | null; input: unknown }): Promise<PartsPage> {
   requirePermission(actor, 'parts:read');
   const f = ListPartsQuery.parse(input);
+  const db = getDb();
+  // Filters on the part's own columns (names and codes become id lookups), so the count and
+  // the page's ids come from the part table and its indexes alone.
   const where: SQL[] = [];
   if (f.status) where.push(eq(schema.part.status, f.status));
-  if (f.device_type) where.push(eq(schema.deviceType.name, f.device_type));
-  if (f.lot) where.push(eq(schema.lot.code, f.lot));
-  if (f.bin) where.push(eq(schema.bin.code, f.bin));
+  if (f.device_type) {
+    // Resolved first: a plain id lets the planner walk the (type, serial) index in order.
+    const [type] = await db.select({ id: schema.deviceType.id }).from(schema.deviceType).where(eq(schema.deviceType.name, f.device_type));
+    where.push(eq(schema.part.deviceTypeId, type?.id ?? -1));
+  }
+  if (f.lot) where.push(inArray(schema.part.lotId, db.select({ id: schema.lot.id }).from(schema.lot).where(eq(schema.lot.code, f.lot))));
+  if (f.bin) where.push(inArray(schema.part.binId, db.select({ id: schema.bin.id }).from(schema.bin).where(eq(schema.bin.code, f.bin))));
   if (f.q) where.push(ilike(schema.part.serial, `%${escapeLike(f.q)}%`));
   const cond = where.length ? and(...where) : undefined;
-  const db = getDb();
 
-  const base = () =>
-    db
-      .select({ part: schema.part, type: schema.deviceType, lot: schema.lot, bin: schema.bin, location: schema.location, fit: schema.fit })
-      .from(schema.part)
-      .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
-      .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
-      .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
-      .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
-      .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId));
-  const [{ total }] = await db
-    .select({ total: count() })
+  const [{ total }] = await db.select({ total: count() }).from(schema.part).where(cond);
+  // The page's parts first (narrow rows, in serial order), then their figures and names.
+  const pageIds = db
+    .select({ id: schema.part.id })
     .from(schema.part)
-    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
-    .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
-    .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
-    .where(cond);
-  const rows = await base()
     .where(cond)
     .orderBy(asc(schema.part.serial))
     .limit(f.page_size)
     .offset((f.page - 1) * f.page_size);
+  const fit = schema.fit;
+  const rows = await db
+    .select({
+      part: schema.part,
+      type: schema.deviceType,
+      lot: schema.lot,
+      bin: schema.bin,
+      location: schema.location,
+      fit: {
+        vtoV: fit.vtoV,
+        betaAPerV2: fit.betaAPerV2,
+        lambdaPerV: fit.lambdaPerV,
+        idssA: fit.idssA,
+        idssVdsV: fit.idssVdsV,
+        vpV: fit.vpV,
+        gfsS: fit.gfsS,
+        gosS: fit.gosS,
+        rmsRel: fit.rmsRel,
+        flags: fit.flags,
+        createdAt: fit.createdAt,
+      },
+    })
+    .from(schema.part)
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
+    .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
+    .leftJoin(schema.bin, eq(schema.bin.id, schema.part.binId))
+    .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
+    .leftJoin(fit, eq(fit.id, schema.part.currentFitId))
+    .where(inArray(schema.part.id, pageIds))
+    .orderBy(asc(schema.part.serial));
 
   return {
     page: f.page,

@@ -1,0 +1,1 @@
+CREATE INDEX "part_type_serial_idx" ON "part" USING btree ("device_type_id","serial");
