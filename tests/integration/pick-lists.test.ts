@@ -2,6 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inArray } from 'drizzle-orm';
 import { sortForPicking } from '~/core/stock/pick-order';
 import { closeDb, getDb, schema } from '~/db/client';
+import { PickListList, PickListView, PickReturnResult, PickScanResult } from '~/contracts/pick-lists';
+import { expectContract } from '../helpers/contract';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';
@@ -63,13 +65,16 @@ describe('pick lists', () => {
     expect((await inspector.fetch(`/pick-lists/${list.id}/print`)).status).toBe(403);
 
     const open = await (await stores.fetch('/api/pick-lists?status=open')).json();
+    expectContract(PickListList, open);
     expect(open.pick_lists.some((x: { id: number }) => x.id === list.id)).toBe(true);
 
     // Role rules: designers and inspectors cannot fulfil; inspectors cannot even read.
     expect((await scan(list.id, lines[0]!.serial, designer)).status).toBe(403);
     expect((await scan(list.id, lines[0]!.serial, inspector)).status).toBe(403);
     expect((await inspector.fetch(`/api/pick-lists/${list.id}`)).status).toBe(403);
-    expect((await designer.fetch(`/api/pick-lists/${list.id}`)).status).toBe(200); // their own list, read-only
+    const own = await designer.fetch(`/api/pick-lists/${list.id}`);
+    expect(own.status).toBe(200); // their own list, read-only
+    expectContract(PickListView, await own.json());
 
     const refused = async (serial: string, refusal: string, message: RegExp) => {
       const res = await scan(list.id, serial);
@@ -85,6 +90,7 @@ describe('pick lists', () => {
     const third = await scan(list.id, lines[2]!.serial);
     expect(third.status).toBe(200);
     const thirdBody = await third.json();
+    expectContract(PickScanResult, thirdBody);
     expect(thirdBody.line_no).toBe(3);
     expect(thirdBody.pick_list.lines.filter((l: { picked_at: string | null }) => l.picked_at).map((l: { line_no: number }) => l.line_no)).toEqual([3]);
     const ok = await scan(list.id, `  ${lines[0]!.serial} `); // scanners may add spaces
@@ -96,6 +102,7 @@ describe('pick lists', () => {
 
     expect((await scan(list.id, lines[1]!.serial)).status).toBe(200);
     const last = await (await scan(list.id, lines.at(-1)!.serial)).json();
+    expectContract(PickScanResult, last);
     expect(last.complete).toBe(true);
     expect(last.issued.sort()).toEqual(lines.map((l) => l.serial).sort());
     expect(last.mailed_to).toBe('designer@demo.sluice.test');
@@ -115,6 +122,7 @@ describe('pick lists', () => {
     // Later, stores take two parts back: issued → returned → in stock, at the place they came from.
     const back = await stores.fetch(`/api/pick-lists/${list.id}/returns`, { method: 'POST', json: { serials: [lines[0]!.serial, lines[1]!.serial] } });
     expect(back.status).toBe(200);
+    expectContract(PickReturnResult, await back.json());
     const after = await statuses([lines[0]!.serial, lines[1]!.serial]);
     for (const [serial, p] of after) {
       expect(p.status).toBe('in_stock');

@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
+import { ReservationConfirmed } from '~/contracts/pick-lists';
+import { ReservationCancelled, ReservationList, ReservationView } from '~/contracts/reservations';
+import { expectContract } from '../helpers/contract';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
 import { insertMatchStock } from './match-fixture';
@@ -36,6 +39,7 @@ describe('reserving a proposal', () => {
     const res = await designer.fetch(`/api/match/proposals/${p.id}/confirm`, { method: 'POST', json: { purpose: 'test bench' } });
     expect(res.status).toBe(201);
     const out = await res.json();
+    expectContract(ReservationConfirmed, out);
     // SLUICE_RESERVATION_DAYS defaults to 3 (src/lib/server/env.ts).
     const days = (new Date(out.expires_at).getTime() - Date.now()) / 86_400_000;
     expect(days).toBeGreaterThan(2.99);
@@ -54,6 +58,7 @@ describe('reserving a proposal', () => {
     expect(out.pick_list.lines.map((l: { line_no: number }) => l.line_no)).toEqual(serials.map((_, i) => i + 1));
     // Listed among the designer's own, not visible to stores as a reservation.
     const mine = await (await designer.fetch('/api/reservations')).json();
+    expectContract(ReservationList, mine);
     expect(mine.reservations.some((r: { id: string }) => r.id === out.reservation.id)).toBe(true);
     expect((await stores.fetch('/api/reservations')).status).toBe(403);
     expect((await stores.fetch(`/api/match/proposals/${p.id}/confirm`, { method: 'POST', json: {} })).status).toBe(403);
@@ -103,6 +108,7 @@ describe('reserving a proposal', () => {
     const res = await designer.fetch(`/api/reservations/${out.reservation.id}/cancel`, { method: 'POST', json: {} });
     expect(res.status).toBe(200);
     const cancelled = await res.json();
+    expectContract(ReservationCancelled, cancelled);
     expect(cancelled.reservation.status).toBe('cancelled');
     expect(cancelled.reservation.pick_list.status).toBe('cancelled');
     const parts = await partsBySerial(p.sets[0].parts.map((x: { serial: string }) => x.serial));
@@ -118,6 +124,7 @@ describe('reserving a proposal', () => {
     const out = await (await designer.fetch(`/api/match/proposals/${p.id}/confirm`, { method: 'POST', json: {} })).json();
     await getDb().update(schema.reservation).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(schema.reservation.id, out.reservation.id));
     const view = await (await designer.fetch(`/api/reservations/${out.reservation.id}`)).json();
+    expectContract(ReservationView, view);
     expect(view.status).toBe('expired');
     expect(view.pick_list.status).toBe('cancelled');
     for (const part of view.sets[0].parts) expect(part.status).toBe('in_stock');

@@ -3,6 +3,8 @@ import { and, eq, inArray } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, uniqueName } from './stock-fixtures';
+import { StockCountJson } from '~/contracts/stock';
+import { expectContract } from '../helpers/contract';
 
 let admin: Session, stores: Session, designer: Session;
 let drawer: { id: number; name: string; barcode: string };
@@ -41,6 +43,7 @@ describe('stock count (issue 13, stores)', () => {
     const res = await count({ location_barcode: drawer.barcode, serials: scanned() });
     expect(res.status).toBe(200);
     const body = await res.json();
+    expectContract(StockCountJson, body);
     expect(body.location.name).toBe(drawer.name);
     expect(body.recorded).toBe(3);
     expect(body.found).toEqual([serials[0], serials[1]]);
@@ -58,6 +61,7 @@ describe('stock count (issue 13, stores)', () => {
     const res = await count({ location_barcode: drawer.barcode, serials: scanned(), apply: true });
     expect(res.status).toBe(200);
     const body = await res.json();
+    expectContract(StockCountJson, body);
     expect(body.applied).toEqual({ moved_here: [serials[3]], held: [serials[2]], left_reserved: [] });
     const p = await parts();
     expect(p.get(serials[3])!.locationId).toBe(drawer.id);

@@ -3,6 +3,8 @@ import { and, eq, sql } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, partsBySerial, uniqueName } from './stock-fixtures';
+import { StockActionResult } from '~/contracts/stock';
+import { expectContract } from '../helpers/contract';
 
 let admin: Session, inspector: Session, designer: Session, stores: Session;
 let type: { id: number; name: string };
@@ -116,6 +118,7 @@ describe('binning, receiving and counting', () => {
     const res = await stores.fetch('/api/stock/receive', { method: 'POST', json: { serials } });
     expect(res.status).toBe(200);
     const body = await res.json();
+    expectContract(StockActionResult, body);
     expect(body.count).toBe(8);
     const now = await partsBySerial(parts.map((p) => p.serial));
     for (const p of parts.slice(0, 8)) {

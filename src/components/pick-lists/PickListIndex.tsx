@@ -1,8 +1,7 @@
 import { useState } from 'react';
 import TabStrip from '../ui/TabStrip';
-import type { PickListSummary } from '~/lib/server/services/pick-lists/list';
 import { STATUS_TAG, dateTime, relativeTo } from '../match/figures';
-import { useApi } from '../api';
+import { usePickLists } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 const FILTERS = [
@@ -27,7 +26,7 @@ export default function PickListIndex({ initialStatus }: { initialStatus?: strin
     url.searchParams.set('status', next);
     window.history.replaceState(null, '', url);
   };
-  const { data, error, loading, reload } = useApi<{ pick_lists: PickListSummary[] }>(`/api/pick-lists?status=${status}`);
+  const { data, error, loading, reload } = usePickLists(status);
   const rows = data?.pick_lists ?? [];
   return (
     <div className="space-y-4">

@@ -1,19 +1,10 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
-import type { PickListView } from '~/lib/server/services/pick-lists/pick-list-view';
+import type { PickListView, PickReturnResult, PickScanResult } from '~/contracts/pick-lists';
 import { formatTime } from '~/core/units/format-date';
 import { STATUS_TAG, dateTime, relativeTo, roleLabel } from '../match/figures';
 import { ApiError, apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import { usePickList } from '../api';
 import { ErrorNotice, Loading } from '../ui/states';
-
-interface ScanAnswer {
-  line_no: number;
-  serial: string;
-  complete: boolean;
-  issued: string[];
-  mailed_to: string | null;
-  pick_list: PickListView;
-}
 
 type Feedback = { kind: 'ok' | 'refused' | 'done'; text: string };
 
@@ -27,7 +18,7 @@ function ReturnParts({ list, onDone }: { list: PickListView; onDone: (l: PickLis
     e.preventDefault();
     setError(undefined);
     try {
-      const out = await apiFetch<{ returned: string[]; pick_list: PickListView }>(`/api/pick-lists/${list.id}/returns`, {
+      const out = await apiFetch<PickReturnResult>(`/api/pick-lists/${list.id}/returns`, {
         method: 'POST',
         json: { serials: chosen, restock },
       });
@@ -62,7 +53,7 @@ function ReturnParts({ list, onDone }: { list: PickListView; onDone: (l: PickLis
 }
 
 export default function PickListScanner({ id, canPick }: { id: string; canPick: boolean }) {
-  const loaded = useApi<PickListView>(`/api/pick-lists/${id}`);
+  const loaded = usePickList(id);
   const [list, setList] = useState<PickListView>();
   const [serial, setSerial] = useState('');
   const [feedback, setFeedback] = useState<Feedback>();
@@ -89,7 +80,7 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
     if (!s || !current || busy) return;
     setBusy(true);
     try {
-      const out = await apiFetch<ScanAnswer>(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial: s } });
+      const out = await apiFetch<PickScanResult>(`/api/pick-lists/${id}/scan`, { method: 'POST', json: { serial: s } });
       setList(out.pick_list);
       setFeedback(
         out.complete

@@ -1,10 +1,10 @@
 import { useState } from 'react';
-import type { ReservationView } from '~/lib/server/services/reservations/reservation-view';
+import type { ReservationCancelled, ReservationView } from '~/contracts/reservations';
 import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat } from '~/core/units/format-quantity';
 import { SHAPE_WORDS, STATUS_TAG, amps, dateTime, millivolts, percent, relativeTo, roleLabel, volts } from '../match/figures';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import { useReservation } from '../api';
 import { ErrorNotice, Loading } from '../ui/states';
 
 type SetRow = { parts: { vgs_v: number; gm_s: number; idss_a: number }[] };
@@ -29,7 +29,7 @@ function describeOp(r: ReservationView): string {
 const PART_STATUS: Record<string, string> = { reserved: 'reserved', issued: 'issued', in_stock: 'back in stock', returned: 'returned' };
 
 export default function ReservationDetail({ id, justMade }: { id: string; justMade: boolean }) {
-  const { data: r, error, loading, reload } = useApi<ReservationView>(`/api/reservations/${id}`);
+  const { data: r, error, loading, reload } = useReservation(id);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ kind: 'ok' | 'error'; text: string }>();
 
@@ -37,7 +37,7 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
     if (!window.confirm('Cancel this reservation? Its parts go back to stock for anyone to use.')) return;
     setBusy(true);
     try {
-      const out = await apiFetch<{ put_back: string[] }>(`/api/reservations/${id}/cancel`, { method: 'POST', json: {} });
+      const out = await apiFetch<ReservationCancelled>(`/api/reservations/${id}/cancel`, { method: 'POST', json: {} });
       setMessage({
         kind: 'ok',
         text: out.put_back.length

@@ -1,10 +1,9 @@
-import type { ReservationSummary } from '~/lib/server/services/reservations/list';
 import { SHAPE_WORDS, STATUS_TAG, dateTime, relativeTo } from '../match/figures';
-import { useApi } from '../api';
+import { useReservations } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
 export default function ReservationList() {
-  const { data, error, loading, reload } = useApi<{ reservations: ReservationSummary[] }>('/api/reservations');
+  const { data, error, loading, reload } = useReservations();
   if (loading && !data) return <Loading what="your reservations" />;
   if (error) return <ErrorNotice error={error} retry={reload} />;
   const rows = data?.reservations ?? [];

@@ -1,9 +1,7 @@
 import { useEffect, useRef, useState, type KeyboardEvent } from 'react';
-import type { StockCountJson } from '~/lib/server/services/stock/count-location';
+import type { StockCountJson, StockCountPart } from '~/contracts/stock';
 import { collectScanBatch } from '~/core/stock/scan-batch';
 import { apiFetch } from '../ui/api-client';
-
-type Part = StockCountJson['missing'][number];
 
 function Group({ title, hint, tone, testId, children, count }: { title: string; hint: string; tone: string; testId: string; count: number; children: React.ReactNode }) {
   return (
@@ -17,7 +15,7 @@ function Group({ title, hint, tone, testId, children, count }: { title: string; 
   );
 }
 
-function PartLine({ p, what }: { p: Part; what: string }) {
+function PartLine({ p, what }: { p: StockCountPart; what: string }) {
   return (
     <li data-serial={p.serial}>
       <a className="font-mono" href={`/parts/${encodeURIComponent(p.serial)}`}>{p.serial}</a> <span className="text-ink-soft">{what}</span>

@@ -6,13 +6,16 @@ import * as commonContracts from '~/contracts/common';
 import * as estimateContracts from '~/contracts/estimates';
 import * as matchContracts from '~/contracts/match';
 import * as partContracts from '~/contracts/parts';
+import * as pickListContracts from '~/contracts/pick-lists';
+import * as reservationContracts from '~/contracts/reservations';
 import * as statisticsContracts from '~/contracts/statistics';
+import * as stockContracts from '~/contracts/stock';
 import { DeviceTypeInput } from './services/device-types/schemas';
 import { MixerRequest, SelfBiasRequest, SetRequest } from './services/estimates/schemas';
 import { LocationInput, LocationPatch } from './services/locations/schemas';
 import { RefitInput } from './services/review/schemas';
 import { StatisticsExportQuery, StatisticsQuery } from './services/statistics/schemas';
-import { MoveInput, ReceiveInput, ReturnInput, ScrapInput } from './services/stock/schemas';
+import { MoveInput, ReceiveInput, ReturnInput, ScrapInput, StockCountInput } from './services/stock/schemas';
 import { InviteUserInput } from './services/users/schemas';
 
 /**
@@ -99,7 +102,7 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/match/device-types': { get: { summary: 'Device types a designer can match from, with what is in stock', response: matchContracts.MatchableTypeList } },
   '/api/match/proposals': { post: { summary: 'Propose matched sets from stock (stored; confirm it to reserve)', body: matchContracts.ProposalRequest, response: matchContracts.ProposalView, status: 201 } },
   '/api/match/proposals/{id}': { get: { summary: 'One of your proposals', response: matchContracts.ProposalView } },
-  '/api/match/proposals/{id}/confirm': { post: { summary: "Reserve every part of the proposal, or 409 naming the parts already taken", body: matchContracts.ConfirmRequest, status: 201 } },
+  '/api/match/proposals/{id}/confirm': { post: { summary: "Reserve every part of the proposal, or 409 naming the parts already taken", body: matchContracts.ConfirmRequest, response: pickListContracts.ReservationConfirmed, status: 201 } },
   '/api/match/proposals/{id}/sets/{set}/figures.csv': { get: { summary: "One proposed set's figures as CSV (sets numbered from 1)", produces: csv } },
   '/api/match/proposals/{id}/sets/{set}/model-cards': { get: { summary: 'SPICE .model cards of one proposed set', produces: 'text/plain' } },
   '/api/me': { get: { summary: 'The signed-in person (id, e-mail, roles, permissions) or the station' } },
@@ -108,13 +111,13 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/parts/{serial}': { get: { summary: 'A part with its current fit, test conditions, sweeps, model card and audit trail', response: partContracts.PartDetailJson } },
   '/api/parts/{serial}/model-card': { get: { summary: "The part's SPICE .model card as a download", produces: 'text/plain' } },
   '/api/parts/{serial}/operating-point': { get: { summary: "The part's VGS, gm and gos at a drain current and VDS", query: partContracts.OperatingPointQuery, response: partContracts.OperatingPointJson } },
-  '/api/pick-lists': { get: { summary: 'Pick lists (?status=open|complete|cancelled|all)', query: z.object({ status: z.enum(['open', 'complete', 'cancelled', 'all']).optional() }) } },
-  '/api/pick-lists/{id}': { get: { summary: 'One pick list with its lines' } },
-  '/api/pick-lists/{id}/returns': { post: { summary: 'Take back parts issued through this list ({ serials, restock?, reason? })' } },
-  '/api/pick-lists/{id}/scan': { post: { summary: "Confirm a line by its part's serial; 409 with `refusal` when refused" } },
-  '/api/reservations': { get: { summary: 'Reservations you may see' } },
-  '/api/reservations/{id}': { get: { summary: 'One reservation with its sets and their figures' } },
-  '/api/reservations/{id}/cancel': { post: { summary: 'Cancel an active reservation; its parts go back to stock' } },
+  '/api/pick-lists': { get: { summary: 'Pick lists (?status=open|complete|cancelled|all)', query: pickListContracts.PickListQuery, response: pickListContracts.PickListList } },
+  '/api/pick-lists/{id}': { get: { summary: 'One pick list with its lines', response: pickListContracts.PickListView } },
+  '/api/pick-lists/{id}/returns': { post: { summary: 'Take back parts issued through this list', body: pickListContracts.PickReturnRequest, response: pickListContracts.PickReturnResult } },
+  '/api/pick-lists/{id}/scan': { post: { summary: "Confirm a line by its part's serial; 409 with `refusal` when refused", body: pickListContracts.PickScanRequest, response: pickListContracts.PickScanResult } },
+  '/api/reservations': { get: { summary: 'Reservations you may see', response: reservationContracts.ReservationList } },
+  '/api/reservations/{id}': { get: { summary: 'One reservation with its sets and their figures', response: reservationContracts.ReservationView } },
+  '/api/reservations/{id}/cancel': { post: { summary: 'Cancel an active reservation; its parts go back to stock', response: reservationContracts.ReservationCancelled } },
   '/api/reservations/{id}/sets/{set}/figures.csv': { get: { summary: "One reserved set's figures as CSV (sets numbered from 1)", produces: csv } },
   '/api/reservations/{id}/sets/{set}/model-cards': { get: { summary: 'SPICE .model cards of one reserved set', produces: 'text/plain' } },
   '/api/review': { get: { summary: 'The review queue (fits waiting for a decision)' } },
@@ -127,11 +130,11 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/statistics/options': { get: { summary: 'Device types and lots to choose from', response: statisticsContracts.StatisticsOptions } },
   '/api/stock/awaiting': { get: { summary: 'Lots with accepted parts waiting to be received into stock' } },
   '/api/stock/lookup': { get: { summary: 'What a scanned part is and what stores may do with it', query: z.object({ serial: z.string() }) } },
-  '/api/stock/move': { post: { summary: 'Move a batch of parts to a location (one transaction)', body: MoveInput } },
-  '/api/stock/receive': { post: { summary: 'Receive a batch of parts into stock (one transaction)', body: ReceiveInput } },
-  '/api/stock/return': { post: { summary: 'Return a batch of issued parts (one transaction)', body: ReturnInput } },
-  '/api/stock/scrap': { post: { summary: 'Scrap a batch of parts (one transaction)', body: ScrapInput } },
-  '/api/stores/count': { post: { summary: "Compare a location's scanned parts with the records; apply: true corrects them" } },
+  '/api/stock/move': { post: { summary: 'Move a batch of parts to a location (one transaction)', body: MoveInput, response: stockContracts.StockActionResult } },
+  '/api/stock/receive': { post: { summary: 'Receive a batch of parts into stock (one transaction)', body: ReceiveInput, response: stockContracts.StockActionResult } },
+  '/api/stock/return': { post: { summary: 'Return a batch of issued parts (one transaction)', body: ReturnInput, response: stockContracts.StockActionResult } },
+  '/api/stock/scrap': { post: { summary: 'Scrap a batch of parts (one transaction)', body: ScrapInput, response: stockContracts.StockActionResult } },
+  '/api/stores/count': { post: { summary: "Compare a location's scanned parts with the records; apply: true corrects them", body: StockCountInput, response: stockContracts.StockCountJson } },
   '/api/sweeps': { post: { summary: 'Upload sweep files (multipart: `file` fields, tags lot/device_type/…); answers 202 at once', status: 202 } },
   '/api/uploads/{id}': { get: { summary: 'An upload and the state of each of its files' } },
   '/api/uploads/{id}/summary': { get: { summary: 'The upload per lot: fitted, flagged, refused by reason' } },
@@ -153,7 +156,19 @@ function jsonSchema(schema: z.ZodType, io: 'input' | 'output'): JsonSchema {
 /** Contract schemas by the name they are exported under, for `components.schemas`. */
 function contractNames(): Map<z.ZodType, string> {
   const names = new Map<z.ZodType, string>();
-  const modules = [commonContracts, auditContracts, partContracts, binPlanContracts, binContracts, estimateContracts, matchContracts, statisticsContracts];
+  const modules = [
+    commonContracts,
+    auditContracts,
+    partContracts,
+    binPlanContracts,
+    binContracts,
+    estimateContracts,
+    matchContracts,
+    statisticsContracts,
+    reservationContracts,
+    pickListContracts,
+    stockContracts,
+  ];
   for (const mod of modules) {
     for (const [name, value] of Object.entries(mod)) if (value instanceof z.ZodType && !names.has(value)) names.set(value, name);
   }

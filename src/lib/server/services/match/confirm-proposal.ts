@@ -6,17 +6,12 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
-import { loadPickListView, type PickListView } from '../pick-lists/pick-list-view';
-import { loadReservationView, reservationCode, type ReservationView } from '../reservations/reservation-view';
+import type { ReservationConfirmed } from '~/contracts/pick-lists';
+import { loadPickListView } from '../pick-lists/pick-list-view';
+import { loadReservationView, reservationCode } from '../reservations/reservation-view';
 import type { StoredProposalResult } from './create-proposal';
 import { loadOwnProposal } from './get-proposal';
 import { ConfirmRequest } from '~/contracts/match';
-
-export interface ConfirmedReservation {
-  reservation: ReservationView;
-  pick_list: PickListView;
-  expires_at: string;
-}
 
 export interface TakenPart {
   serial: string;
@@ -47,7 +42,7 @@ export async function confirmMatchProposal({
   actor: Actor | null;
   proposalId: string;
   input?: unknown;
-}): Promise<ConfirmedReservation> {
+}): Promise<ReservationConfirmed> {
   requirePermission(actor, 'match:reserve');
   const { purpose } = ConfirmRequest.parse(input ?? {});
   const db = getDb();

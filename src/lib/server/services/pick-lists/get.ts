@@ -3,7 +3,8 @@ import { getDb } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { maySeeOwnedRecord, requireOwnedRecordScope, type Actor } from '~/lib/server/identity';
 import { expireDueReservations } from '../reservations/expire';
-import { loadPickListView, type PickListView } from './pick-list-view';
+import type { PickListView } from '~/contracts/pick-lists';
+import { loadPickListView } from './pick-list-view';
 
 export function parsePickListId(id: string): number {
   const n = parseRowId(String(id).replace(/^PL-/i, ''));

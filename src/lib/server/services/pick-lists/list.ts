@@ -1,32 +1,15 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
-import { z } from 'zod';
 import { getDb, schema } from '~/db/client';
 import { requireOwnedRecordScope, type Actor } from '~/lib/server/identity';
+import { PickListQuery, type PickListSummary } from '~/contracts/pick-lists';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { expireDueReservations } from '../reservations/expire';
 import { pickLineCounts, pickListCode, reservationCode } from '../reservations/reservation-view';
 
-export const PickListFilter = z.object({ status: z.enum(['open', 'complete', 'cancelled', 'all']).default('open') });
-
-export interface PickListSummary {
-  id: number;
-  code: string;
-  status: 'open' | 'complete' | 'cancelled';
-  created_at: string;
-  completed_at: string | null;
-  reservation: { id: string; code: string; status: string; expires_at: string; designer_name: string; purpose: string };
-  device_type: string | null;
-  sets: number;
-  lines_total: number;
-  lines_picked: number;
-  /** Location of the first unpicked line: where the picker starts. */
-  first_location: string | null;
-}
-
 /** Pick lists, oldest open first (stores), or the designer's own. */
 export async function listPickLists({ actor, input }: { actor: Actor | null; input?: unknown }): Promise<PickListSummary[]> {
   const { scope } = requireOwnedRecordScope(actor, 'pickList');
-  const { status } = PickListFilter.parse(input ?? {});
+  const { status } = PickListQuery.parse(input ?? {});
   await expireDueReservations();
   const db = getDb();
   const rows = await db

@@ -2,36 +2,8 @@ import { alias } from 'drizzle-orm/pg-core';
 import { asc, eq } from 'drizzle-orm';
 import { schema, type DbOrTx } from '~/db/client';
 import type { StoredProposalResult } from '../match/create-proposal';
-import { pickListCode, reservationCode, type ReservationStatus } from '../reservations/reservation-view';
-
-export interface PickLineView {
-  line_no: number;
-  part_id: number;
-  serial: string;
-  location: string | null;
-  location_barcode: string | null;
-  /** Set membership: set number (from 1) and the part's role in it. */
-  set_no: number;
-  role: string;
-  cascode_index?: 0 | 1;
-  part_status: string;
-  picked_at: string | null;
-  picked_by: string | null;
-}
-
-export interface PickListView {
-  id: number;
-  code: string;
-  status: 'open' | 'complete' | 'cancelled';
-  created_at: string;
-  completed_at: string | null;
-  completed_by: string | null;
-  device_type: string | null;
-  reservation: { id: string; code: string; status: ReservationStatus; expires_at: string; purpose: string; designer_name: string; designer_user_id: string };
-  lines: PickLineView[];
-  lines_total: number;
-  lines_picked: number;
-}
+import type { PickLineView, PickListView } from '~/contracts/pick-lists';
+import { pickListCode, reservationCode } from '../reservations/reservation-view';
 
 /** A pick list with its lines in picking order (by location, as numbered when confirmed). */
 export async function loadPickListView(db: DbOrTx, id: number): Promise<PickListView | null> {

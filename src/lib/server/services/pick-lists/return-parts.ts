@@ -1,31 +1,23 @@
-import { normalizeSerial } from '~/core/serial/normalize-serial';
 import { and, eq, inArray } from 'drizzle-orm';
-import { z } from 'zod';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import { PickReturnRequest, type PickReturnResult } from '~/contracts/pick-lists';
 import { checkLowStock } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { pickListCode } from '../reservations/reservation-view';
 import { parsePickListId } from './get';
-import { loadPickListView, type PickListView } from './pick-list-view';
-
-export const ReturnRequest = z.object({
-  serials: z.array(z.string().transform(normalizeSerial).pipe(z.string().min(1))).min(1, 'name at least one serial to take back').max(500),
-  /** true (default): straight back into stock at the place it was picked from; false: leave it returned (e.g. for re-measuring). */
-  restock: z.boolean().default(true),
-  reason: z.string().trim().max(300).optional(),
-});
+import { loadPickListView } from './pick-list-view';
 
 /**
  * Stores take back parts issued through a pick list: issued → returned, and unless `restock`
  * is false, returned → in stock at the location the line was picked from, free of the
  * reservation. All or nothing: a serial not issued on this list refuses the whole return.
  */
-export async function returnPickedParts({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<{ returned: string[]; restocked: boolean; pick_list: PickListView }> {
+export async function returnPickedParts({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<PickReturnResult> {
   requirePermission(actor, 'pickLists:fulfil');
   const listId = parsePickListId(id);
-  const req = ReturnRequest.parse(input);
+  const req = PickReturnRequest.parse(input);
   const db = getDb();
   const code = pickListCode(listId);
   const returned = await db.transaction(async (tx) => {

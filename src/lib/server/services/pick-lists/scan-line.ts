@@ -1,34 +1,19 @@
 import { normalizeSerial } from '~/core/serial/normalize-serial';
 import { and, eq, sql } from 'drizzle-orm';
-import { z } from 'zod';
 import { describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError, type AppErrorArgs, type ErrorParams } from '~/core/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import { PickScanRequest, type PickScanResult } from '~/contracts/pick-lists';
 import { changePartStatuses } from '../parts/change-status';
 import { expireDueReservations } from '../reservations/expire';
 import { pickListCode, reservationCode } from '../reservations/reservation-view';
 import { parsePickListId } from './get';
 import { mailIssuedReservation } from './mail-issued';
-import { loadPickListView, type PickListView } from './pick-list-view';
-
-/** The serial scanned; it fulfils whichever line of the list it belongs to, in any order. */
-export const ScanRequest = z.object({
-  serial: z.string().transform(normalizeSerial).pipe(z.string().min(1, 'scan or type the serial on the part')),
-});
+import { loadPickListView } from './pick-list-view';
 
 export type ScanRefusal = 'not_on_list' | 'already_picked' | 'list_closed';
-
-export interface ScanResult {
-  line_no: number;
-  serial: string;
-  complete: boolean;
-  /** Parts issued when this scan completed the list. */
-  issued: string[];
-  mailed_to: string | null;
-  pick_list: PickListView;
-}
 
 /** The scan's refusal: the catalogue's error, with `refusal` (what the scanner screen switches on). */
 function refusal<C extends 'pick_list_closed' | 'pick_list_reservation_closed' | 'not_on_pick_list' | 'already_picked'>(
@@ -47,10 +32,10 @@ function refusal<C extends 'pick_list_closed' | 'pick_list_reservation_closed' |
  * the reservation and the list in the same transaction, then mails the designer.
  * Locks the reservation, then the list (the order cancel and expiry use too).
  */
-export async function scanPickLine({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<ScanResult> {
+export async function scanPickLine({ actor, id, input }: { actor: Actor | null; id: string; input: unknown }): Promise<PickScanResult> {
   requirePermission(actor, 'pickLists:fulfil');
   const listId = parsePickListId(id);
-  const { serial } = ScanRequest.parse(input);
+  const { serial } = PickScanRequest.parse(input);
   await expireDueReservations();
   const db = getDb();
   const out = await db.transaction(async (tx) => {

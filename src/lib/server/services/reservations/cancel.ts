@@ -6,7 +6,8 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { loadOwnReservation } from './get';
-import { loadReservationView, reservationCode, type ReservationView } from './reservation-view';
+import type { ReservationCancelled } from '~/contracts/reservations';
+import { loadReservationView, reservationCode } from './reservation-view';
 
 /**
  * A designer cancels their active reservation: its reserved parts go back to stock and its
@@ -19,7 +20,7 @@ export async function cancelReservation({
 }: {
   actor: Actor | null;
   id: string;
-}): Promise<{ reservation: ReservationView; put_back: string[] }> {
+}): Promise<ReservationCancelled> {
   requirePermission(actor, 'match:reserve');
   const db = getDb();
   await loadOwnReservation(db, actor, id);

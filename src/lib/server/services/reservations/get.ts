@@ -3,7 +3,8 @@ import { getDb, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { maySeeOwnedRecord, requirePermission, type Actor } from '~/lib/server/identity';
 import { expireDueReservations } from './expire';
-import { loadReservationView, type ReservationView } from './reservation-view';
+import type { ReservationView } from '~/contracts/reservations';
+import { loadReservationView } from './reservation-view';
 
 const ReservationId = z.uuid();
 

@@ -1,24 +1,10 @@
 import { desc, eq, inArray } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { ReservationSummary } from '~/contracts/reservations';
 import type { StoredProposalResult } from '../match/create-proposal';
 import { expireDueReservations } from './expire';
-import { pickLineCounts, pickListCode, reservationCode, type ReservationStatus } from './reservation-view';
-
-export interface ReservationSummary {
-  id: string;
-  code: string;
-  status: ReservationStatus;
-  purpose: string;
-  created_at: string;
-  expires_at: string;
-  closed_at: string | null;
-  device_type: string | null;
-  shape: string | null;
-  sets: number;
-  parts: number;
-  pick_list: { id: number; code: string; status: string; lines_total: number; lines_picked: number } | null;
-}
+import { pickLineCounts, pickListCode, reservationCode } from './reservation-view';
 
 /** The actor's own reservations, newest first (expired ones are settled first). */
 export async function listReservations({ actor }: { actor: Actor | null }): Promise<ReservationSummary[]> {

@@ -1,7 +1,7 @@
 import { asc, eq, inArray, sql } from 'drizzle-orm';
 import { schema, type DbOrTx } from '~/db/client';
 import type { StoredProposalResult } from '../match/create-proposal';
-import type { ProposalView } from '~/contracts/match';
+import type { ReservationView } from '~/contracts/reservations';
 
 /** A short code people can say and type: R- and the first 8 hex digits of the id. */
 export function reservationCode(id: string): string {
@@ -10,56 +10,6 @@ export function reservationCode(id: string): string {
 
 export function pickListCode(id: number): string {
   return `PL-${id}`;
-}
-
-export type ReservationStatus = 'active' | 'issued' | 'cancelled' | 'expired';
-
-export interface ReservedPart {
-  part_id: number;
-  serial: string;
-  role: string;
-  cascode_index?: 0 | 1;
-  vgs_v: number;
-  /** One standard deviation of vgs_v (V), as proposed; null for older reservations. */
-  vgs_sigma_v: number | null;
-  gm_s: number;
-  idss_a: number;
-  /** Where the figures came from when the set was proposed. */
-  source: 'measured' | 'model' | null;
-  bin_code: string | null;
-  location: string | null;
-  /** The part's status now (reserved, issued, back in stock after a cancel, ...). */
-  status: string;
-  picked: boolean;
-}
-
-export interface ReservationView {
-  id: string;
-  code: string;
-  status: ReservationStatus;
-  purpose: string;
-  created_at: string;
-  expires_at: string;
-  closed_at: string | null;
-  designer: { id: string; name: string; email: string };
-  proposal_id: string | null;
-  device_type: ProposalView['device_type'] | null;
-  shape: ProposalView['shape'] | null;
-  operating_point: ProposalView['operating_point'] | null;
-  tolerances: ProposalView['tolerances'] | null;
-  /** Temperature the parts were compared at (°C). */
-  temperature_c: number;
-  sets: {
-    index: number;
-    parts: ReservedPart[];
-    dvgs_v: number | null;
-    /** One standard deviation of dvgs_v (V). */
-    dvgs_sigma_v: number | null;
-    gm_mismatch: number | null;
-    idss_mismatch: number | null;
-    cascode_headroom_v?: number;
-  }[];
-  pick_list: { id: number; code: string; status: 'open' | 'complete' | 'cancelled'; lines_total: number; lines_picked: number; completed_at: string | null } | null;
 }
 
 /** Everything the reservation page shows, read in `db` (a transaction or the pool). */

@@ -1,6 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import type { PartStatus } from '~/core/stock/part-transitions';
 import { describePartStatus } from '~/core/stock/part-transitions';
+import type { StockActionResult } from '~/contracts/stock';
 import { schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import type { LowStockAlert } from '../alerts/low-stock';
@@ -103,13 +104,6 @@ export async function locationNames(tx: DbOrTx, ids: readonly (number | null)[])
   if (!list.length) return new Map();
   const rows = await tx.select({ id: schema.location.id, name: schema.location.name }).from(schema.location).where(inArray(schema.location.id, list));
   return new Map(rows.map((r) => [r.id, r.name]));
-}
-
-export interface StockActionResult {
-  action: 'receive' | 'move' | 'scrap' | 'return';
-  count: number;
-  parts: { serial: string; from: PartStatus; to: PartStatus; bin_code: string | null; location: string | null }[];
-  low_stock_alerts: { bin_code: string; device_type: string; on_hand: number; threshold: number }[];
 }
 
 export function alertsJson(alerts: readonly LowStockAlert[]): StockActionResult['low_stock_alerts'] {

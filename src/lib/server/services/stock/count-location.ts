@@ -1,43 +1,14 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm';
-import { z } from 'zod';
 import { compareStockCount, type CountedPart, type StockCountResult } from '~/core/stock/compare-stock-count';
-import { describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
+import { describePartStatus } from '~/core/stock/part-transitions';
+import type { StockCountJson, StockCountPart } from '~/contracts/stock';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts, type LowStockAlert } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { alertsJson, lockPartsById, resolveLocation } from './batch';
-import { SerialList } from './schemas';
-
-export const StockCountInput = z.object({
-  location_barcode: z.string().trim().min(1, 'scan the label of the location you are counting').max(64),
-  serials: SerialList,
-  /** false: only compare (what the screen shows while scanning); true: also correct the records. */
-  apply: z.boolean().default(false),
-  /** On apply, put parts that are in stock here by the records but were not found on hold (quarantined). */
-  hold_missing: z.boolean().default(true),
-});
-
-interface PartJson {
-  serial: string;
-  status: PartStatus;
-  status_words: string;
-  recorded_at: string | null;
-}
-
-export interface StockCountJson {
-  location: { id: number; name: string; barcode: string };
-  recorded: number;
-  found: string[];
-  missing: PartJson[];
-  misplaced: PartJson[];
-  unexpected: PartJson[];
-  unknown: string[];
-  /** What apply changed: parts moved here, parts put on hold. Empty when only comparing. */
-  applied: { moved_here: string[]; held: string[]; left_reserved: string[] } | null;
-  low_stock_alerts: ReturnType<typeof alertsJson>;
-}
+import { StockCountInput } from './schemas';
 
 const ON_SHELF = ['in_stock', 'reserved'] as const;
 
@@ -61,7 +32,7 @@ async function loadCount(tx: DbOrTx, locationId: number, serials: readonly strin
   return { here, scanned };
 }
 
-function partJson(p: CountedPart): PartJson {
+function countedPartJson(p: CountedPart): StockCountPart {
   return { serial: p.serial, status: p.status, status_words: describePartStatus(p.status), recorded_at: p.locationName };
 }
 
@@ -156,9 +127,9 @@ export async function countLocationStock({ actor, input }: { actor: Actor | null
       location,
       recorded: loaded.here.length,
       found: result.found,
-      missing: result.missing.map(partJson),
-      misplaced: result.misplaced.map(partJson),
-      unexpected: result.unexpected.map(partJson),
+      missing: result.missing.map(countedPartJson),
+      misplaced: result.misplaced.map(countedPartJson),
+      unexpected: result.unexpected.map(countedPartJson),
       unknown: result.unknown,
       applied,
       low_stock_alerts: alertsJson(alerts),

@@ -1,7 +1,8 @@
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
-import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
+import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
+import type { StockActionResult } from '~/contracts/stock';
 import { MoveInput } from './schemas';
 
 /**

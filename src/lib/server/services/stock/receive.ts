@@ -4,7 +4,8 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
-import { lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
+import { lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
+import type { StockActionResult } from '~/contracts/stock';
 import { ReceiveInput } from './schemas';
 
 /** States a part may be received from: freshly accepted, or back from an issue. */

@@ -2,7 +2,8 @@ import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses, type ChangedPart } from '../parts/change-status';
-import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal, type StockActionResult } from './batch';
+import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
+import type { StockActionResult } from '~/contracts/stock';
 import { ReturnInput } from './schemas';
 
 /**

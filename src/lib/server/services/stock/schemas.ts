@@ -46,3 +46,13 @@ export const ReturnInput = z.object({
   ...locationRef,
 });
 export type ReturnInput = z.infer<typeof ReturnInput>;
+
+export const StockCountInput = z.object({
+  location_barcode: z.string().trim().min(1, 'scan the label of the location you are counting').max(64),
+  serials: SerialList,
+  /** false: only compare (what the screen shows while scanning); true: also correct the records. */
+  apply: z.boolean().default(false),
+  /** On apply, put parts that are in stock here by the records but were not found on hold (quarantined). */
+  hold_missing: z.boolean().default(true),
+});
+export type StockCountInput = z.infer<typeof StockCountInput>;

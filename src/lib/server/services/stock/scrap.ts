@@ -3,7 +3,8 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
-import { lockPartsBySerial, stockActionResult, type StockActionResult } from './batch';
+import { lockPartsBySerial, stockActionResult } from './batch';
+import type { StockActionResult } from '~/contracts/stock';
 import { ScrapInput } from './schemas';
 
 /**

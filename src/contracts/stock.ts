@@ -1,0 +1,55 @@
+import { z } from 'zod';
+import { PartStatus } from './common';
+
+/** A bin that fell to or below its low-stock threshold with this change (stores are e-mailed). */
+export const LowStockAlertJson = z.object({
+  bin_code: z.string(),
+  device_type: z.string(),
+  on_hand: z.number().int(),
+  threshold: z.number().int(),
+});
+export type LowStockAlertJson = z.infer<typeof LowStockAlertJson>;
+
+/** `POST /api/stock/{receive,move,scrap,return}`: each changed part with its bin and where it now is. */
+export const StockActionResult = z.object({
+  action: z.enum(['receive', 'move', 'scrap', 'return']),
+  count: z.number().int(),
+  parts: z.array(
+    z.object({
+      serial: z.string(),
+      from: PartStatus,
+      to: PartStatus,
+      bin_code: z.string().nullable(),
+      /** Name of the location the part is at now. */
+      location: z.string().nullable(),
+    }),
+  ),
+  low_stock_alerts: z.array(LowStockAlertJson),
+});
+export type StockActionResult = z.infer<typeof StockActionResult>;
+
+/** A part a stock count names, with where the records put it. */
+export const StockCountPart = z.object({
+  serial: z.string(),
+  status: PartStatus,
+  status_words: z.string(),
+  /** Name of the location the records put the part at. */
+  recorded_at: z.string().nullable(),
+});
+export type StockCountPart = z.infer<typeof StockCountPart>;
+
+/** `POST /api/stores/count`: a location's scanned parts against the records, and what `apply` corrected. */
+export const StockCountJson = z.object({
+  location: z.object({ id: z.number().int(), name: z.string(), barcode: z.string() }),
+  /** How many parts the records put here. */
+  recorded: z.number().int(),
+  found: z.array(z.string()),
+  missing: z.array(StockCountPart),
+  misplaced: z.array(StockCountPart),
+  unexpected: z.array(StockCountPart),
+  unknown: z.array(z.string()),
+  /** What apply changed: parts moved here, parts put on hold. Null when only comparing. */
+  applied: z.object({ moved_here: z.array(z.string()), held: z.array(z.string()), left_reserved: z.array(z.string()) }).nullable(),
+  low_stock_alerts: z.array(LowStockAlertJson),
+});
+export type StockCountJson = z.infer<typeof StockCountJson>;
