@@ -53,3 +53,42 @@ export const StockCountJson = z.object({
   low_stock_alerts: z.array(LowStockAlertJson),
 });
 export type StockCountJson = z.infer<typeof StockCountJson>;
+
+/** `GET /api/stock/lookup`: the query. */
+export const StockLookupQuery = z.object({ serial: z.string() });
+export type StockLookupQuery = z.infer<typeof StockLookupQuery>;
+
+/** `GET /api/stock/lookup`: what a scanned part is, and what stores may do with it now. */
+export const PartLookup = z.object({
+  serial: z.string(),
+  status: PartStatus,
+  status_words: z.string(),
+  device_type: z.string(),
+  /** Lot code. */
+  lot: z.string().nullable(),
+  bin_code: z.string().nullable(),
+  bin_label: z.string().nullable(),
+  bin_in_active_plan: z.boolean(),
+  /** Name of the location the part is at. */
+  location: z.string().nullable(),
+  /** Name of its bin's home location. */
+  home_location: z.string().nullable(),
+  idss_a: z.number().nullable(),
+  vp_v: z.number().nullable(),
+  can: z.object({ receive: z.boolean(), move: z.boolean(), scrap: z.boolean(), return: z.boolean() }),
+});
+export type PartLookup = z.infer<typeof PartLookup>;
+
+/** A lot with accepted parts not yet received into stock (unbinned: no bin in the active plan yet). */
+export const AwaitingLot = z.object({
+  lot_id: z.number().int().nullable(),
+  lot: z.string().nullable(),
+  device_type: z.string(),
+  accepted: z.number().int(),
+  unbinned: z.number().int(),
+});
+export type AwaitingLot = z.infer<typeof AwaitingLot>;
+
+/** `GET /api/stock/awaiting`: the stores' work waiting, by type and lot. */
+export const AwaitingLotList = z.object({ lots: z.array(AwaitingLot) });
+export type AwaitingLotList = z.infer<typeof AwaitingLotList>;

@@ -6,6 +6,10 @@ import { idssA } from '~/core/jfet-model';
 import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file';
 import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
 import { seededRandom } from '~/core/random/seeded-random';
+import { LotCreated, LotList } from '~/contracts/lots';
+import { StationCreated, StationList, StationRevoked } from '~/contracts/stations';
+import { UploadReceived, UploadStatus } from '~/contracts/uploads';
+import { expectContract } from '../helpers/contract';
 
 /**
  * Sweep intake end to end: POST /api/sweeps (station token and inspector), the pg-boss worker
@@ -38,7 +42,7 @@ async function waitForUpload(id: string, via: (path: string) => Promise<Response
   for (let i = 0; i < 120; i++) {
     const res = await via(`/api/uploads/${id}`);
     expect(res.status).toBe(200);
-    const body = await res.json();
+    const body = expectContract(UploadStatus, await res.json());
     if (body.done) return body;
     await new Promise((r) => setTimeout(r, 250));
   }
@@ -62,7 +66,9 @@ afterAll(async () => {
 describe('station tokens', () => {
   it('are listed without the token itself, stored hashed (common practice for API tokens)', async () => {
     const res = await admin.fetch('/api/admin/stations');
-    const { stations } = await res.json();
+    const body = await res.json();
+    expectContract(StationList, body);
+    const { stations } = body;
     const mine = stations.find((s: { name: string }) => s.name === `Test bench ${RUN}`);
     expect(mine.token_prefix).toBe(stationToken.slice(0, 10));
     expect(JSON.stringify(stations)).not.toContain(stationToken);
@@ -72,9 +78,11 @@ describe('station tokens', () => {
   });
 
   it('a revoked token is refused at once', async () => {
-    const made = await (await admin.fetch('/api/admin/stations', { method: 'POST', json: { name: `Retired ${RUN}` } })).json();
+    const made = expectContract(StationCreated, await (await admin.fetch('/api/admin/stations', { method: 'POST', json: { name: `Retired ${RUN}` } })).json());
     expect((await postSweeps([{ name: 'a.csv', text: nFile(`RV-${RUN}`) }], { bearer: made.token })).status).toBe(202);
-    expect((await admin.fetch(`/api/admin/stations/${made.id}`, { method: 'DELETE' })).status).toBe(200);
+    const revoked = await admin.fetch(`/api/admin/stations/${made.id}`, { method: 'DELETE' });
+    expect(revoked.status).toBe(200);
+    expectContract(StationRevoked, await revoked.json());
     const res = await postSweeps([{ name: 'b.csv', text: nFile(`RV2-${RUN}`) }], { bearer: made.token });
     expect(res.status).toBe(401);
   });
@@ -87,7 +95,7 @@ describe('POST /api/sweeps with a station token', () => {
   it('answers 202 at once with the upload id and each file queued', async () => {
     const res = await postSweeps([{ name: `${serial}.csv`, text: nFile(serial) }], { bearer: stationToken });
     expect(res.status).toBe(202);
-    const body = await res.json();
+    const body = expectContract(UploadReceived, await res.json());
     expect(body.upload_id).toMatch(/^[0-9a-f-]{36}$/);
     expect(body.files).toEqual([{ id: expect.any(Number), name: `${serial}.csv`, state: 'queued', reason: null, duplicate_of: null }]);
     uploadId = body.upload_id;
@@ -248,9 +256,10 @@ describe('role rules', () => {
     expect((await designer.fetch('/api/lots', { method: 'POST', json: { code: `L-${RUN}`, device_type: 'WS-N30' } })).status).toBe(403);
     const made = await inspector.fetch('/api/lots', { method: 'POST', json: { code: `L-${RUN}`, device_type: 'WS-N30' } });
     expect(made.status).toBe(201);
+    expectContract(LotCreated, await made.json());
     const res = await postSweeps([{ name: 'lot.csv', text: nFile(`TL-${RUN}`, 11, { lot: `L-${RUN}` }) }], { session: inspector });
     await waitForUpload((await res.json()).upload_id, (p) => inspector.fetch(p));
-    const { lots } = await (await designer.fetch('/api/lots')).json();
+    const { lots } = expectContract(LotList, await (await designer.fetch('/api/lots')).json());
     expect(lots.find((l: { code: string }) => l.code === `L-${RUN}`)).toMatchObject({ part_count: 1, by_status: { accepted: 1 } });
   });
   it('an unknown lot rejects the file, naming the lot', async () => {

@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest';
 import pg from 'pg';
 import { anonymous, signIn, BASE_URL } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
+import { UserList } from '~/contracts/users';
+import { expectContract } from '../helpers/contract';
 
 describe('invitations', () => {
   it('mail a link that lets the invited person choose a password and sign in', async () => {
@@ -30,6 +32,7 @@ describe('invitations', () => {
     expect(me.roles.sort()).toEqual(['inspector', 'stores']);
 
     const list = await (await admin.fetch('/api/admin/users')).json();
+    expectContract(UserList, list);
     const row = list.users.find((u: { email: string }) => u.email === email);
     expect(row.invitationPending).toBe(false);
   });

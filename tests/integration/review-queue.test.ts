@@ -4,6 +4,8 @@ import { signIn, type Session } from '../helpers/http';
 import { closeDb, getDb, schema } from '~/db/client';
 import { simulateSweepCsv, type Defect } from '~/core/intake/simulated-sweep';
 import { seededRandom } from '~/core/random/seeded-random';
+import { FitAccepted, RefitResult, RetestResult, ReviewQueue } from '~/contracts/review';
+import { expectContract } from '../helpers/contract';
 
 /** The review queue: flagged fits wait for an inspector, who accepts, refits or sends to retest. */
 
@@ -50,7 +52,9 @@ describe('the queue', () => {
   it('lists flagged parts with their flags in plain words', async () => {
     const res = await inspector.fetch('/api/review');
     expect(res.status).toBe(200);
-    const { items } = await res.json();
+    const body = await res.json();
+    expectContract(ReviewQueue, body);
+    const { items } = body;
     const h = items.find((i: { serial: string }) => i.serial === heated);
     const b = items.find((i: { serial: string }) => i.serial === broken);
     // A negative saturation slope at high VDS·ID is self-heating; a sharp rise at the top of VDS is breakdown (PRODUCT.md, common practice).
@@ -78,7 +82,7 @@ describe('actions', () => {
     ];
     const res = await inspector.fetch(`/api/review/${heated}/refit`, { method: 'POST', json: { fit_id: before.fit_id, excluded_points: excluded, note: 'hot top points' } });
     expect(res.status).toBe(200);
-    const out = await res.json();
+    const out = expectContract(RefitResult, await res.json());
     expect(out.fit_id).toBeGreaterThan(before.fit_id);
     const after = await (await inspector.fetch(`/api/parts/${heated}`)).json();
     expect(after.fit_id).toBe(out.fit_id);
@@ -121,7 +125,7 @@ describe('actions', () => {
     const p = await (await inspector.fetch(`/api/parts/${heated}`)).json();
     const res = await inspector.fetch(`/api/review/${heated}/accept`, { method: 'POST', json: { fit_id: p.fit_id, note: 'checked by hand' } });
     expect(res.status).toBe(200);
-    expect((await res.json()).status).toBe('accepted');
+    expect(expectContract(FitAccepted, await res.json()).status).toBe('accepted');
     const after = await (await inspector.fetch(`/api/parts/${heated}`)).json();
     expect(after.status).toBe('accepted');
     expect(after.review).toBe('accepted');
@@ -134,6 +138,7 @@ describe('actions', () => {
     const p = await (await inspector.fetch(`/api/parts/${broken}`)).json();
     const res = await inspector.fetch(`/api/review/${broken}/retest`, { method: 'POST', json: { fit_id: p.fit_id } });
     expect(res.status).toBe(200);
+    expectContract(RetestResult, await res.json());
     const queue = await (await inspector.fetch('/api/review?status=retest')).json();
     expect(queue.items.map((i: { serial: string }) => i.serial)).toContain(broken);
     const again = await upload(`${broken}-again.csv`, file(broken, 'none', 8));

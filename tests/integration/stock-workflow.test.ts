@@ -3,7 +3,8 @@ import { and, eq, sql } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, partsBySerial, uniqueName } from './stock-fixtures';
-import { StockActionResult } from '~/contracts/stock';
+import { LocationList, LocationRecord } from '~/contracts/locations';
+import { AwaitingLotList, PartLookup, StockActionResult } from '~/contracts/stock';
 import { expectContract } from '../helpers/contract';
 
 let admin: Session, inspector: Session, designer: Session, stores: Session;
@@ -104,7 +105,7 @@ describe('binning, receiving and counting', () => {
   it('stores set home locations; receiving by scanned serials puts parts at their bin home, one batch', async () => {
     const loc = await stores.fetch('/api/locations', { method: 'POST', json: { name: uniqueName('Test cabinet'), description: 'integration' } });
     expect(loc.status).toBe(201);
-    homeId = (await loc.json()).id;
+    homeId = expectContract(LocationRecord, await loc.json()).id;
     const other = await stores.fetch('/api/locations', { method: 'POST', json: { name: uniqueName('Overflow'), barcode: uniqueName('LOC-OVF') } });
     otherBarcode = (await other.json()).barcode;
     const { bins } = await binsOf();
@@ -113,6 +114,7 @@ describe('binning, receiving and counting', () => {
       expect(r.status).toBe(200);
     }
     const listed = await (await designer.fetch('/api/locations')).json();
+    expectContract(LocationList, listed);
     expect(listed.locations.find((l: { id: number }) => l.id === homeId).bin_count).toBe(17);
     const serials = parts.slice(0, 8).map((p) => `  ${p.serial}\r`); // as a scanner may send them
     const res = await stores.fetch('/api/stock/receive', { method: 'POST', json: { serials } });
@@ -125,6 +127,10 @@ describe('binning, receiving and counting', () => {
       expect(now.get(p.serial)!.status).toBe('in_stock');
       expect(now.get(p.serial)!.locationId).toBe(homeId);
     }
+    // A scanned serial looks up as what stores may do with it now; the lots still waiting are listed.
+    const looked = expectContract(PartLookup, await (await stores.fetch(`/api/stock/lookup?serial=${encodeURIComponent(parts[0].serial)}`)).json());
+    expect(looked).toMatchObject({ serial: parts[0].serial, status: 'in_stock', can: { receive: false, move: true, return: false } });
+    expectContract(AwaitingLotList, await (await stores.fetch('/api/stock/awaiting')).json());
   });
 
   it('on-hand per bin equals the parts in stock in it (counted by hand from the cases)', async () => {

@@ -5,6 +5,8 @@ import { simulateSweepCsv } from '~/core/intake/simulated-sweep';
 import { seededRandom } from '~/core/random/seeded-random';
 import { signIn, type Session } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
+import { LotSummaryMailed, UploadSummaryJson } from '~/contracts/uploads';
+import { expectContract } from '../helpers/contract';
 
 /** Issue 13, inspector: a per-lot summary of an upload, mailed to the supplier contact through the SMTP sink. */
 let inspector: Session, designer: Session;
@@ -49,6 +51,7 @@ describe('upload summary per lot', () => {
     const res = await inspector.fetch(`/api/uploads/${id}/summary`);
     expect(res.status).toBe(200);
     const body = await res.json();
+    expectContract(UploadSummaryJson, body);
     const lot = body.lots.find((l: { lot: string }) => l.lot === LOT);
     expect(lot).toMatchObject({ files: 4, fitted: 2, rejected: 2, device_type: 'WS-N30', supplier: 'Kestrel Semis' });
     expect(lot.refusals.reduce((n: number, r: { files: number }) => n + r.files, 0)).toBe(2);
@@ -62,6 +65,7 @@ describe('upload summary per lot', () => {
     const to = `quality-${RUN.toLowerCase()}@kestrel.example`;
     const res = await inspector.fetch(`/api/uploads/${id}/summary-mail`, { method: 'POST', json: { lot: LOT, to } });
     expect(res.status, await res.clone().text()).toBe(200);
+    expectContract(LotSummaryMailed, await res.json());
     const mail = await waitForMail(to, new RegExp(`lot ${LOT}`));
     expect(mail.subject).toContain('2 fitted, 0 flagged, 2 refused');
     expect(mail.text).toMatch(/Fitted and accepted:\s+2 files \(2 parts\)/);

@@ -1,17 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { formatDateTime } from '~/core/units/format-date';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { StationCreated, StationJson } from '~/contracts/stations';
+import { useStations } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface StationRow {
-  id: string;
-  name: string;
-  token_prefix: string;
-  created_at: string;
-  last_used_at: string | null;
-  revoked_at: string | null;
-}
 
 function when(iso: string | null) {
   return formatDateTime(iso);
@@ -19,8 +11,8 @@ function when(iso: string | null) {
 
 /** Test-station tokens: create (the token is shown once), list, revoke. */
 export default function StationsAdmin() {
-  const { data, error, loading, reload } = useApi<{ stations: StationRow[] }>('/api/admin/stations');
-  const [fresh, setFresh] = useState<{ name: string; token: string }>();
+  const { data, error, loading, reload } = useStations();
+  const [fresh, setFresh] = useState<StationCreated>();
   const [message, setMessage] = useState<{ kind: 'ok' | 'error'; text: string }>();
 
   async function create(e: FormEvent<HTMLFormElement>) {
@@ -28,7 +20,7 @@ export default function StationsAdmin() {
     const form = e.currentTarget;
     const name = String(new FormData(form).get('name') ?? '');
     try {
-      const made = await apiFetch<{ name: string; token: string }>('/api/admin/stations', { method: 'POST', json: { name } });
+      const made = await apiFetch<StationCreated>('/api/admin/stations', { method: 'POST', json: { name } });
       setFresh(made);
       setMessage(undefined);
       form.reset();
@@ -37,7 +29,7 @@ export default function StationsAdmin() {
       setMessage({ kind: 'error', text: (err as Error).message });
     }
   }
-  async function revoke(s: StationRow) {
+  async function revoke(s: StationJson) {
     if (!window.confirm(`Revoke the token of ${s.name}? The station can no longer upload until it gets a new token.`)) return;
     try {
       await apiFetch(`/api/admin/stations/${s.id}`, { method: 'DELETE' });

@@ -1,17 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { ROLES, type Role } from '~/lib/access';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { UserJson } from '~/contracts/users';
+import { useUsers } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface UserRow {
-  id: string;
-  email: string;
-  name: string;
-  roles: Role[];
-  disabled: boolean;
-  invitationPending: boolean;
-}
 
 function RolePicker({ value, onChange, idPrefix }: { value: Role[]; onChange: (r: Role[]) => void; idPrefix: string }) {
   return (
@@ -32,7 +24,7 @@ function RolePicker({ value, onChange, idPrefix }: { value: Role[]; onChange: (r
 }
 
 export default function PeopleAdmin({ selfId }: { selfId: string }) {
-  const { data, error, loading, reload } = useApi<{ users: UserRow[] }>('/api/admin/users');
+  const { data, error, loading, reload } = useUsers();
   const [inviteRoles, setInviteRoles] = useState<Role[]>(['designer']);
   const [message, setMessage] = useState<{ kind: 'ok' | 'error'; text: string }>();
 

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from 'react';
+import type { LotSummaryMailed } from '~/contracts/uploads';
 import { apiFetch } from '../ui/api-client';
 
 /** Mails one lot's summary of an upload to the supplier contact; the address is kept on the lot. */
@@ -9,7 +10,7 @@ export default function LotSummaryMail({ uploadId, lot, supplierEmail }: { uploa
     e.preventDefault();
     setState({ kind: 'busy' });
     try {
-      const out = await apiFetch<{ sent_to: string; subject: string }>(`/api/uploads/${uploadId}/summary-mail`, { method: 'POST', json: { lot, to: to.trim() } });
+      const out = await apiFetch<LotSummaryMailed>(`/api/uploads/${uploadId}/summary-mail`, { method: 'POST', json: { lot, to: to.trim() } });
       setState({ kind: 'sent', text: `Sent to ${out.sent_to}: “${out.subject}”.` });
     } catch (err) {
       setState({ kind: 'error', text: (err as Error).message });

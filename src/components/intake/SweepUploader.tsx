@@ -6,6 +6,7 @@ import '@uppy/dashboard/css/style.min.css';
 import { useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
 import { MAX_SWEEP_FILE_BYTES } from '~/core/sweep-file/limits';
 import CurveThumbnail from '../charts/CurveThumbnail';
+import type { UploadFileState, UploadReceived, UploadStatus } from '~/contracts/uploads';
 import type { PartJson } from '../parts/part-types';
 import { q } from '../parts/figures';
 import { apiFetch } from '../ui/api-client';
@@ -13,28 +14,10 @@ import { useApi } from '../api';
 import { Empty, ErrorNotice } from '../ui/states';
 import { retryWords, uppyVerdict, unknownLotOf } from '~/core/intake/upload-verdict';
 
-interface FileStatus {
-  id: number;
-  name: string;
-  state: 'queued' | 'fitted' | 'needs_review' | 'rejected';
-  reason: string | null;
-  error_code: string | null;
-  serials: string[];
-  duplicate_of: { file_id: number; upload_id: string; name: string } | null;
-  retry: { attempt: number; attempts: number; next_at: string | null } | null;
-}
-interface UploadStatus {
-  upload_id: string;
-  created_at: string;
-  done: boolean;
-  counts: Record<FileStatus['state'], number>;
-  files: FileStatus[];
-}
-
 const TAGS = ['lot', 'device_type', 'temperature_c', 'station', 'operator', 'channel'] as const;
 type Tags = Record<(typeof TAGS)[number], string>;
 
-const STATE_WORDS: Record<FileStatus['state'], [string, string]> = {
+const STATE_WORDS: Record<UploadFileState, [string, string]> = {
   queued: ['queued for fitting', 'tag-plain'],
   fitted: ['fitted', 'tag-ok'],
   needs_review: ['needs review', 'tag-review'],
@@ -240,7 +223,7 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
     const form = new FormData();
     for (const k of TAGS) if (tags[k]) form.append(k, tags[k]);
     for (const l of local) form.append('file', l.data, l.name);
-    const out = await apiFetch<{ upload_id: string }>('/api/sweeps', { method: 'POST', body: form });
+    const out = await apiFetch<UploadReceived>('/api/sweeps', { method: 'POST', body: form });
     sent.current.set(out.upload_id, local.map((l) => ({ ...l })));
     setUploadIds((ids) => [out.upload_id, ...ids]);
   }

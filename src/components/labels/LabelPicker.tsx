@@ -1,22 +1,7 @@
 import { useState } from 'react';
-import { useApi } from '../api';
+import type { BinStockPage } from '~/contracts/bins';
+import { useApi, useLocations } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface BinRow {
-  id: number;
-  code: string;
-  label: string;
-  on_hand: number;
-  location: { name: string } | null;
-}
-
-interface LocationRow {
-  id: number;
-  name: string;
-  barcode: string;
-  description: string;
-  part_count: number;
-}
 
 export interface LayoutOption {
   id: string;
@@ -34,8 +19,8 @@ export default function LabelPicker({ deviceTypes, layouts, initialKind }: { dev
   const [symbology, setSymbology] = useState<'code128' | 'datamatrix'>('code128');
   const [picked, setPicked] = useState<Set<number>>(new Set());
   const [serials, setSerials] = useState('');
-  const bins = useApi<{ bins: BinRow[] }>(kind === 'bin' && type ? `/api/bins?device_type=${encodeURIComponent(type)}&page_size=1000` : null);
-  const locations = useApi<{ locations: LocationRow[] }>(kind === 'location' ? '/api/locations' : null);
+  const bins = useApi<BinStockPage>(kind === 'bin' && type ? `/api/bins?device_type=${encodeURIComponent(type)}&page_size=1000` : null);
+  const locations = useLocations(kind === 'location');
 
   const params = new URLSearchParams({ kind, layout, symbology });
   if (kind === 'bin') params.set('bins', [...picked].join(','));

@@ -2,23 +2,13 @@ import { useState, type FormEvent } from 'react';
 import { when } from './figures';
 import { STATUS_WORDS, statusClass } from './part-types';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { LotCreated } from '~/contracts/lots';
+import { useLots } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface LotRow {
-  code: string;
-  device_type: string;
-  channel: 'n' | 'p';
-  supplier: string;
-  notes: string;
-  received_at: string;
-  part_count: number;
-  by_status: Record<string, number>;
-}
 
 /** Lots with their parts counted by status; inspectors may add a lot. */
 export default function LotsList({ canCreate, deviceTypes }: { canCreate: boolean; deviceTypes: string[] }) {
-  const { data, error, loading, reload } = useApi<{ lots: LotRow[] }>('/api/lots');
+  const { data, error, loading, reload } = useLots();
   const [message, setMessage] = useState<{ kind: 'ok' | 'error'; text: string }>();
 
   async function create(e: FormEvent<HTMLFormElement>) {
@@ -26,7 +16,7 @@ export default function LotsList({ canCreate, deviceTypes }: { canCreate: boolea
     const form = e.currentTarget;
     const f = new FormData(form);
     try {
-      const lot = await apiFetch<{ code: string }>('/api/lots', {
+      const lot = await apiFetch<LotCreated>('/api/lots', {
         method: 'POST',
         json: { code: f.get('code'), device_type: f.get('device_type'), supplier: f.get('supplier'), notes: f.get('notes') },
       });

@@ -2,28 +2,15 @@ import { useState } from 'react';
 import { percent, q, when } from '../parts/figures';
 import { flagWord } from '../parts/part-types';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { FitsAccepted, ReviewQueueQuery } from '~/contracts/review';
+import { useReviewQueue } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import TabStrip from '../ui/TabStrip';
 
-interface QueueItem {
-  serial: string;
-  device_type: string;
-  lot: string | null;
-  fit_id: number | null;
-  fitted_at: string | null;
-  file_name: string | null;
-  idss_a: number | null;
-  vp_v: number | null;
-  rms_rel: number | null;
-  flags: { code: string; message: string }[];
-  review_note: string | null;
-}
-
 /** Parts waiting for an inspector (or for a retest), oldest first, flags in plain words. */
 export default function ReviewQueue() {
-  const [status, setStatus] = useState<'needs_review' | 'retest' | 'model_disagrees'>('needs_review');
-  const { data, error, loading, reload } = useApi<{ total: number; items: QueueItem[] }>(`/api/review?status=${status}`);
+  const [status, setStatus] = useState<ReviewQueueQuery['status']>('needs_review');
+  const { data, error, loading, reload } = useReviewQueue(status);
   const [chosen, setChosen] = useState<Set<string>>(new Set());
   const [note, setNote] = useState('');
   const [busy, setBusy] = useState(false);
@@ -42,7 +29,7 @@ export default function ReviewQueue() {
     setMessage(undefined);
     try {
       const parts = items.filter((it) => chosen.has(it.serial)).map((it) => ({ serial: it.serial, ...(it.fit_id ? { fit_id: it.fit_id } : {}) }));
-      const out = await apiFetch<{ accepted: { serial: string }[] }>('/api/review/accept', { method: 'POST', json: { parts, ...(note.trim() ? { note: note.trim() } : {}) } });
+      const out = await apiFetch<FitsAccepted>('/api/review/accept', { method: 'POST', json: { parts, ...(note.trim() ? { note: note.trim() } : {}) } });
       setMessage({ ok: true, text: `Accepted and binned ${out.accepted.length} part${out.accepted.length === 1 ? '' : 's'}: ${out.accepted.map((a) => a.serial).join(', ')}.` });
       setChosen(new Set());
       setNote('');

@@ -1,18 +1,10 @@
 import { useState, type FormEvent } from 'react';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { LocationJson } from '~/contracts/locations';
+import { useLocations } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 
-interface LocationRow {
-  id: number;
-  name: string;
-  barcode: string;
-  description: string;
-  bin_count: number;
-  part_count: number;
-}
-
-function LocationLine({ l, canEdit, canLabel, act }: { l: LocationRow; canEdit: boolean; canLabel: boolean; act: (fn: () => Promise<unknown>, ok: string) => void }) {
+function LocationLine({ l, canEdit, canLabel, act }: { l: LocationJson; canEdit: boolean; canLabel: boolean; act: (fn: () => Promise<unknown>, ok: string) => void }) {
   const [editing, setEditing] = useState(false);
   const [name, setName] = useState(l.name);
   const [barcode, setBarcode] = useState(l.barcode);
@@ -65,7 +57,7 @@ function LocationLine({ l, canEdit, canLabel, act }: { l: LocationRow; canEdit: 
 }
 
 export default function LocationsManager({ canEdit, canLabel = false }: { canEdit: boolean; canLabel?: boolean }) {
-  const { data, error, loading, reload } = useApi<{ locations: LocationRow[] }>('/api/locations');
+  const { data, error, loading, reload } = useLocations();
   const [message, setMessage] = useState<{ ok: boolean; text: string }>();
   function act(fn: () => Promise<unknown>, ok: string) {
     fn()

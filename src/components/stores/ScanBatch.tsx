@@ -1,37 +1,19 @@
 import { useEffect, useRef, useState, type FormEvent, type KeyboardEvent } from 'react';
 import { collectScanBatch } from '~/core/stock/scan-batch';
 import { formatQuantity } from '~/core/units/format-quantity';
+import type { PartLookup, StockActionResult } from '~/contracts/stock';
 import { ApiError, apiFetch } from '../ui/api-client';
 
-export type StockAction = 'receive' | 'move' | 'return' | 'scrap';
-
-interface Lookup {
-  serial: string;
-  status: string;
-  status_words: string;
-  device_type: string;
-  bin_code: string | null;
-  location: string | null;
-  home_location: string | null;
-  idss_a: number | null;
-  vp_v: number | null;
-  can: Record<StockAction, boolean>;
-}
+export type StockAction = StockActionResult['action'];
 
 interface Row {
   serial: string;
   state: 'checking' | 'ready' | 'problem' | 'done';
   note: string;
-  lookup?: Lookup;
+  lookup?: PartLookup;
 }
 
-interface ActionResult {
-  count: number;
-  parts: { serial: string; from: string; to: string; bin_code: string | null; location: string | null }[];
-  low_stock_alerts: { bin_code: string; device_type: string; on_hand: number; threshold: number }[];
-}
-
-const VERB: Record<StockAction, { button: string; done: string; cannot: (l: Lookup) => string }> = {
+const VERB: Record<StockAction, { button: string; done: string; cannot: (l: PartLookup) => string }> = {
   receive: {
     button: 'Receive',
     done: 'received',
@@ -42,7 +24,7 @@ const VERB: Record<StockAction, { button: string; done: string; cannot: (l: Look
   scrap: { button: 'Scrap', done: 'scrapped', cannot: (l) => `it is ${l.status_words} and cannot be scrapped` },
 };
 
-function readyNote(action: StockAction, l: Lookup): string {
+function readyNote(action: StockAction, l: PartLookup): string {
   const figures = l.idss_a !== null && l.vp_v !== null ? ` · IDSS ${formatQuantity(l.idss_a, 'A', 2)}, VP ${formatQuantity(l.vp_v, 'V', 2)}` : '';
   if (action === 'receive') return `${l.device_type} · bin ${l.bin_code ?? '—'} → ${l.home_location ?? 'no home location set'}${figures}`;
   return `${l.device_type} · bin ${l.bin_code ?? '—'} · now at ${l.location ?? '—'}`;
@@ -57,7 +39,7 @@ export default function ScanBatch({ action, onDone }: { action: StockAction; onD
   const [text, setText] = useState('');
   const [flash, setFlash] = useState<string>();
   const [busy, setBusy] = useState(false);
-  const [result, setResult] = useState<{ ok: boolean; text: string; alerts?: ActionResult['low_stock_alerts'] }>();
+  const [result, setResult] = useState<{ ok: boolean; text: string; alerts?: StockActionResult['low_stock_alerts'] }>();
   const [location, setLocation] = useState('');
   const [reason, setReason] = useState('');
   const [restock, setRestock] = useState(true);
@@ -71,7 +53,7 @@ export default function ScanBatch({ action, onDone }: { action: StockAction; onD
 
   async function check(serial: string) {
     try {
-      const l = await apiFetch<Lookup>(`/api/stock/lookup?serial=${encodeURIComponent(serial)}`);
+      const l = await apiFetch<PartLookup>(`/api/stock/lookup?serial=${encodeURIComponent(serial)}`);
       setRows((rs) => rs.map((r) => (r.serial === serial ? { ...r, lookup: l, state: l.can[action] ? 'ready' : 'problem', note: l.can[action] ? readyNote(action, l) : VERB[action].cannot(l) } : r)));
     } catch (e) {
       setRows((rs) => rs.map((r) => (r.serial === serial ? { ...r, state: 'problem', note: (e as Error).message } : r)));
@@ -111,7 +93,7 @@ export default function ScanBatch({ action, onDone }: { action: StockAction; onD
     if (reason.trim()) body.reason = reason.trim();
     if (action === 'return') body.restock = restock;
     try {
-      const res = await apiFetch<ActionResult>(`/api/stock/${action}`, { method: 'POST', json: body });
+      const res = await apiFetch<StockActionResult>(`/api/stock/${action}`, { method: 'POST', json: body });
       const by = new Map(res.parts.map((p) => [p.serial, p]));
       setRows((rs) =>
         rs.map((r) => {

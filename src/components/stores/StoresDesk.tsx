@@ -1,17 +1,10 @@
 import { useState } from 'react';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { AwaitingLot, StockActionResult } from '~/contracts/stock';
+import { useAwaitingReceipt } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import ScanBatch, { type StockAction } from './ScanBatch';
 import TabStrip from '../ui/TabStrip';
-
-interface AwaitingLot {
-  lot_id: number | null;
-  lot: string | null;
-  device_type: string;
-  accepted: number;
-  unbinned: number;
-}
 
 const TABS: { id: StockAction; label: string; hint: string }[] = [
   { id: 'receive', label: 'Receive', hint: 'Accepted parts go on the shelf at their bin’s home location.' },
@@ -21,11 +14,11 @@ const TABS: { id: StockAction; label: string; hint: string }[] = [
 ];
 
 function AwaitingLots({ onReceived }: { onReceived: () => void }) {
-  const { data, error, loading, reload } = useApi<{ lots: AwaitingLot[] }>('/api/stock/awaiting');
+  const { data, error, loading, reload } = useAwaitingReceipt();
   const [message, setMessage] = useState<{ ok: boolean; text: string }>();
   async function receiveLot(l: AwaitingLot) {
     try {
-      const r = await apiFetch<{ count: number }>('/api/stock/receive', { method: 'POST', json: { lot: l.lot_id } });
+      const r = await apiFetch<StockActionResult>('/api/stock/receive', { method: 'POST', json: { lot: l.lot_id } });
       setMessage({ ok: true, text: `Lot ${l.lot}: ${r.count} parts received.` });
       reload();
       onReceived();

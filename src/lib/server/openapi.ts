@@ -4,19 +4,25 @@ import * as binPlanContracts from '~/contracts/bin-plans';
 import * as binContracts from '~/contracts/bins';
 import * as commonContracts from '~/contracts/common';
 import * as estimateContracts from '~/contracts/estimates';
+import * as locationContracts from '~/contracts/locations';
+import * as lotContracts from '~/contracts/lots';
 import * as matchContracts from '~/contracts/match';
 import * as partContracts from '~/contracts/parts';
 import * as pickListContracts from '~/contracts/pick-lists';
 import * as reservationContracts from '~/contracts/reservations';
+import * as reviewContracts from '~/contracts/review';
+import * as stationContracts from '~/contracts/stations';
 import * as statisticsContracts from '~/contracts/statistics';
 import * as stockContracts from '~/contracts/stock';
+import * as uploadContracts from '~/contracts/uploads';
+import * as userContracts from '~/contracts/users';
 import { DeviceTypeInput } from './services/device-types/schemas';
 import { MixerRequest, SelfBiasRequest, SetRequest } from './services/estimates/schemas';
 import { LocationInput, LocationPatch } from './services/locations/schemas';
-import { RefitInput } from './services/review/schemas';
+import { RefitInput, ReviewTarget } from './services/review/schemas';
 import { StatisticsExportQuery, StatisticsQuery } from './services/statistics/schemas';
 import { MoveInput, ReceiveInput, ReturnInput, ScrapInput, StockCountInput } from './services/stock/schemas';
-import { InviteUserInput } from './services/users/schemas';
+import { InviteUserInput, SetDisabledInput, SetRolesInput } from './services/users/schemas';
 
 /**
  * The OpenAPI 3.1 description of `/api/**`, generated from the zod contracts in src/contracts
@@ -52,16 +58,16 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   },
   '/api/admin/device-types/{id}': { put: { summary: 'Change a device type', body: DeviceTypeInput } },
   '/api/admin/stations': {
-    get: { summary: 'Test-station tokens (names and dates, never the token)' },
-    post: { summary: 'Issue a station token (shown once in the answer)', status: 201 },
+    get: { summary: 'Test-station tokens (names and dates, never the token)', response: stationContracts.StationList },
+    post: { summary: 'Issue a station token (shown once in the answer)', body: stationContracts.CreateStationInput, response: stationContracts.StationCreated, status: 201 },
   },
-  '/api/admin/stations/{id}': { delete: { summary: "Revoke a station's token" } },
+  '/api/admin/stations/{id}': { delete: { summary: "Revoke a station's token", response: stationContracts.StationRevoked } },
   '/api/admin/users': {
-    get: { summary: 'People with their roles' },
-    post: { summary: 'Invite a person by e-mail with roles', body: InviteUserInput, status: 201 },
+    get: { summary: 'People with their roles', response: userContracts.UserList },
+    post: { summary: 'Invite a person by e-mail with roles', body: InviteUserInput, response: userContracts.UserInvited, status: 201 },
   },
-  '/api/admin/users/{id}/disabled': { put: { summary: 'Disable or enable a person ({ disabled })' } },
-  '/api/admin/users/{id}/roles': { put: { summary: "Set a person's roles ({ roles })" } },
+  '/api/admin/users/{id}/disabled': { put: { summary: 'Disable or enable a person', body: SetDisabledInput.omit({ userId: true }), response: userContracts.UserDisabledSet } },
+  '/api/admin/users/{id}/roles': { put: { summary: "Set a person's roles", body: SetRolesInput.omit({ userId: true }), response: userContracts.UserRolesSet } },
   '/api/auth/{all}': {
     get: { summary: 'Sign-in, sessions and password reset (better-auth routes under /api/auth/)' },
     post: { summary: 'Sign-in, sign-out and password reset (better-auth routes under /api/auth/)' },
@@ -88,16 +94,16 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/health': { get: { summary: 'Whether the server and its database answer ({ ok })', public: true } },
   '/api/labels/barcode': { get: { summary: 'A barcode rendered on the server (?text=&symbology=&format=svg|png)', produces: 'image/svg+xml' } },
   '/api/locations': {
-    get: { summary: 'Storage locations' },
-    post: { summary: 'Create a location', body: LocationInput, status: 201 },
+    get: { summary: 'Storage locations', response: locationContracts.LocationList },
+    post: { summary: 'Create a location', body: LocationInput, response: locationContracts.LocationRecord, status: 201 },
   },
   '/api/locations/{id}': {
-    put: { summary: 'Change a location', body: LocationPatch },
-    delete: { summary: 'Delete an empty location' },
+    put: { summary: 'Change a location', body: LocationPatch, response: locationContracts.LocationRecord },
+    delete: { summary: 'Delete an empty location', response: locationContracts.LocationDeleted },
   },
   '/api/lots': {
-    get: { summary: 'Lots with their device type and supplier' },
-    post: { summary: 'Create a lot', status: 201 },
+    get: { summary: 'Lots with their device type and supplier', response: lotContracts.LotList },
+    post: { summary: 'Create a lot', body: lotContracts.CreateLotInput, response: lotContracts.LotCreated, status: 201 },
   },
   '/api/match/device-types': { get: { summary: 'Device types a designer can match from, with what is in stock', response: matchContracts.MatchableTypeList } },
   '/api/match/proposals': { post: { summary: 'Propose matched sets from stock (stored; confirm it to reserve)', body: matchContracts.ProposalRequest, response: matchContracts.ProposalView, status: 201 } },
@@ -120,25 +126,25 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/reservations/{id}/cancel': { post: { summary: 'Cancel an active reservation; its parts go back to stock', response: reservationContracts.ReservationCancelled } },
   '/api/reservations/{id}/sets/{set}/figures.csv': { get: { summary: "One reserved set's figures as CSV (sets numbered from 1)", produces: csv } },
   '/api/reservations/{id}/sets/{set}/model-cards': { get: { summary: 'SPICE .model cards of one reserved set', produces: 'text/plain' } },
-  '/api/review': { get: { summary: 'The review queue (fits waiting for a decision)' } },
-  '/api/review/{serial}/accept': { post: { summary: "Accept a part's current fit" } },
-  '/api/review/{serial}/refit': { post: { summary: 'Fit again with points left out', body: RefitInput } },
-  '/api/review/{serial}/retest': { post: { summary: 'Mark a part for retest' } },
-  '/api/review/accept': { post: { summary: "Accept several parts' fits in one transaction ({ parts: [{ serial, fit_id }], note })" } },
+  '/api/review': { get: { summary: 'The review queue (fits waiting for a decision)', query: reviewContracts.ReviewQueueQuery, response: reviewContracts.ReviewQueue } },
+  '/api/review/{serial}/accept': { post: { summary: "Accept a part's current fit", body: ReviewTarget.omit({ serial: true }), response: reviewContracts.FitAccepted } },
+  '/api/review/{serial}/refit': { post: { summary: 'Fit again with points left out', body: RefitInput.omit({ serial: true }), response: reviewContracts.RefitResult } },
+  '/api/review/{serial}/retest': { post: { summary: 'Mark a part for retest', body: ReviewTarget.omit({ serial: true }), response: reviewContracts.RetestResult } },
+  '/api/review/accept': { post: { summary: "Accept several parts' fits in one transaction", body: reviewContracts.AcceptFitsRequest, response: reviewContracts.FitsAccepted } },
   '/api/statistics': { get: { summary: 'Statistics of a lot, a device type and/or a date range, one group per type', query: StatisticsQuery, response: statisticsContracts.StatisticsReport } },
   '/api/statistics/export': { get: { summary: 'One table of the statistics report as CSV', query: StatisticsExportQuery, produces: csv } },
   '/api/statistics/options': { get: { summary: 'Device types and lots to choose from', response: statisticsContracts.StatisticsOptions } },
-  '/api/stock/awaiting': { get: { summary: 'Lots with accepted parts waiting to be received into stock' } },
-  '/api/stock/lookup': { get: { summary: 'What a scanned part is and what stores may do with it', query: z.object({ serial: z.string() }) } },
+  '/api/stock/awaiting': { get: { summary: 'Lots with accepted parts waiting to be received into stock', response: stockContracts.AwaitingLotList } },
+  '/api/stock/lookup': { get: { summary: 'What a scanned part is and what stores may do with it', query: stockContracts.StockLookupQuery, response: stockContracts.PartLookup } },
   '/api/stock/move': { post: { summary: 'Move a batch of parts to a location (one transaction)', body: MoveInput, response: stockContracts.StockActionResult } },
   '/api/stock/receive': { post: { summary: 'Receive a batch of parts into stock (one transaction)', body: ReceiveInput, response: stockContracts.StockActionResult } },
   '/api/stock/return': { post: { summary: 'Return a batch of issued parts (one transaction)', body: ReturnInput, response: stockContracts.StockActionResult } },
   '/api/stock/scrap': { post: { summary: 'Scrap a batch of parts (one transaction)', body: ScrapInput, response: stockContracts.StockActionResult } },
   '/api/stores/count': { post: { summary: "Compare a location's scanned parts with the records; apply: true corrects them", body: StockCountInput, response: stockContracts.StockCountJson } },
-  '/api/sweeps': { post: { summary: 'Upload sweep files (multipart: `file` fields, tags lot/device_type/…); answers 202 at once', status: 202 } },
-  '/api/uploads/{id}': { get: { summary: 'An upload and the state of each of its files' } },
-  '/api/uploads/{id}/summary': { get: { summary: 'The upload per lot: fitted, flagged, refused by reason' } },
-  '/api/uploads/{id}/summary-mail': { post: { summary: "Mail one lot's summary of this upload ({ lot, to })" } },
+  '/api/sweeps': { post: { summary: 'Upload sweep files (multipart: `file` fields, tags lot/device_type/…); answers 202 at once', response: uploadContracts.UploadReceived, status: 202 } },
+  '/api/uploads/{id}': { get: { summary: 'An upload and the state of each of its files', response: uploadContracts.UploadStatus } },
+  '/api/uploads/{id}/summary': { get: { summary: 'The upload per lot: fitted, flagged, refused by reason', response: uploadContracts.UploadSummaryJson } },
+  '/api/uploads/{id}/summary-mail': { post: { summary: "Mail one lot's summary of this upload", body: uploadContracts.LotSummaryMailRequest, response: uploadContracts.LotSummaryMailed } },
 };
 
 /** `/api/bins/[id]` → `/api/bins/{id}`; a rest segment `[...all]` → `{all}`. */
@@ -168,6 +174,12 @@ function contractNames(): Map<z.ZodType, string> {
     reservationContracts,
     pickListContracts,
     stockContracts,
+    userContracts,
+    stationContracts,
+    locationContracts,
+    lotContracts,
+    reviewContracts,
+    uploadContracts,
   ];
   for (const mod of modules) {
     for (const [name, value] of Object.entries(mod)) if (value instanceof z.ZodType && !names.has(value)) names.set(value, name);

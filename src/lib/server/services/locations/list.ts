@@ -1,15 +1,7 @@
 import { asc, sql } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-
-export interface LocationJson {
-  id: number;
-  name: string;
-  barcode: string;
-  description: string;
-  bin_count: number;
-  part_count: number;
-}
+import type { LocationJson } from '~/contracts/locations';
 
 /** Every location with how many active-plan bins call it home and how many parts sit there. */
 export async function listLocations({ actor }: { actor: Actor | null }): Promise<LocationJson[]> {

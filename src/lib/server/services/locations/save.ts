@@ -1,9 +1,15 @@
 import { eq, or, sql } from 'drizzle-orm';
+import type { LocationDeleted, LocationRecord } from '~/contracts/locations';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { barcodeFromName, LocationInput, LocationPatch } from './schemas';
+
+/** A stored location as creating and changing it answer. */
+function locationRecord(row: typeof schema.location.$inferSelect): LocationRecord {
+  return { id: row.id, name: row.name, barcode: row.barcode, description: row.description, createdAt: row.createdAt.toISOString() };
+}
 
 async function assertFree(tx: DbOrTx, name: string | undefined, barcode: string | undefined, exceptId?: number) {
   const clash = await tx
@@ -17,7 +23,7 @@ async function assertFree(tx: DbOrTx, name: string | undefined, barcode: string 
   }
 }
 
-export async function createLocation({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function createLocation({ actor, input }: { actor: Actor | null; input: unknown }): Promise<LocationRecord> {
   requirePermission(actor, 'locations:manage');
   const data = LocationInput.parse(input);
   const barcode = data.barcode ?? barcodeFromName(data.name);
@@ -25,11 +31,11 @@ export async function createLocation({ actor, input }: { actor: Actor | null; in
     await assertFree(tx, data.name, barcode);
     const [row] = await tx.insert(schema.location).values({ name: data.name, barcode, description: data.description }).returning();
     await writeAudit(tx, actor, { action: 'location.create', subjectType: 'location', subjectId: row.id, after: row });
-    return row;
+    return locationRecord(row);
   });
 }
 
-export async function updateLocation({ actor, id, input }: { actor: Actor | null; id: number; input: unknown }) {
+export async function updateLocation({ actor, id, input }: { actor: Actor | null; id: number; input: unknown }): Promise<LocationRecord> {
   requirePermission(actor, 'locations:manage');
   const data = LocationPatch.parse(input);
   return getDb().transaction(async (tx) => {
@@ -38,12 +44,12 @@ export async function updateLocation({ actor, id, input }: { actor: Actor | null
     await assertFree(tx, data.name, data.barcode, id);
     const [row] = await tx.update(schema.location).set(data).where(eq(schema.location.id, id)).returning();
     await writeAudit(tx, actor, { action: 'location.update', subjectType: 'location', subjectId: id, before, after: row });
-    return row;
+    return locationRecord(row);
   });
 }
 
 /** Deletes an unused location; one that is a bin's home or holds parts is refused. */
-export async function deleteLocation({ actor, id }: { actor: Actor | null; id: number }) {
+export async function deleteLocation({ actor, id }: { actor: Actor | null; id: number }): Promise<LocationDeleted> {
   requirePermission(actor, 'locations:manage');
   return getDb().transaction(async (tx) => {
     const [before] = await tx.select().from(schema.location).where(eq(schema.location.id, id)).for('update');

@@ -1,24 +1,11 @@
 import { eq } from 'drizzle-orm';
-import { z } from 'zod';
-import { STORABLE_DATE_RANGE_TEXT, isStorableDate } from '~/core/dates/storable-date';
+import { CreateLotInput, type LotCreated } from '~/contracts/lots';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 
-export const CreateLotInput = z.object({
-  code: z.string().trim().min(1, 'must not be empty').max(60, 'must be at most 60 characters'),
-  device_type: z.string().trim().min(1, 'name the device type of the lot'),
-  supplier: z.string().trim().max(120).default(''),
-  notes: z.string().trim().max(1000).default(''),
-  received_at: z.coerce
-    .date({ error: 'expected a date such as 2025-03-01' })
-    .refine(isStorableDate, { error: `expected ${STORABLE_DATE_RANGE_TEXT}` })
-    .optional(),
-});
-export type CreateLotInput = z.infer<typeof CreateLotInput>;
-
-export async function createLot({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function createLot({ actor, input }: { actor: Actor | null; input: unknown }): Promise<LotCreated> {
   requirePermission(actor, 'lots:create');
   const data = CreateLotInput.parse(input);
   return getDb().transaction(async (tx) => {

@@ -1,21 +1,9 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { LotJson } from '~/contracts/lots';
 
-export interface LotRow {
-  id: number;
-  code: string;
-  device_type: string;
-  channel: 'n' | 'p';
-  supplier: string;
-  notes: string;
-  received_at: string;
-  part_count: number;
-  /** Parts of the lot per status; statuses with no parts are left out. */
-  by_status: Record<string, number>;
-}
-
-export async function listLots({ actor }: { actor: Actor | null }): Promise<LotRow[]> {
+export async function listLots({ actor }: { actor: Actor | null }): Promise<LotJson[]> {
   requirePermission(actor, 'lots:read');
   const db = getDb();
   const lots = await db

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { z } from 'zod';
+import { AcceptFitsRequest, type FitAccepted, type FitsAccepted } from '~/contracts/review';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -9,7 +9,7 @@ import { changePartStatuses } from '../parts/change-status';
 import { loadReviewTarget } from './load-target';
 import { ReviewTarget } from './schemas';
 
-async function acceptOne(tx: DbOrTx, actor: Actor, serial: string, fitId: number | undefined, note: string | undefined) {
+async function acceptOne(tx: DbOrTx, actor: Actor, serial: string, fitId: number | undefined, note: string | undefined): Promise<FitAccepted> {
   const { part, fit } = await loadReviewTarget(tx, serial, fitId);
   await tx
     .update(schema.fit)
@@ -23,28 +23,19 @@ async function acceptOne(tx: DbOrTx, actor: Actor, serial: string, fitId: number
 }
 
 /** An inspector accepts the part's current fit despite its flags: the part is accepted and binned. */
-export async function acceptFit({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function acceptFit({ actor, input }: { actor: Actor | null; input: unknown }): Promise<FitAccepted> {
   requirePermission(actor, 'fits:review');
   const data = ReviewTarget.parse(input);
   return getDb().transaction((tx) => acceptOne(tx, actor, data.serial, data.fit_id, data.note));
 }
 
-export const AcceptManyInput = z.object({
-  /** Each part with the fit the inspector looked at; a newer fit refuses the whole batch. */
-  parts: z
-    .array(z.object({ serial: z.string().min(1), fit_id: z.number().int().positive().optional() }))
-    .min(1, 'choose at least one part to accept')
-    .max(500, 'at most 500 parts at once'),
-  note: z.string().trim().max(1000).optional(),
-});
-
 /**
  * Accepts several parts' fits at once, in ONE transaction: all are accepted and binned, or
  * none (the error names the part that stopped the batch).
  */
-export async function acceptFits({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function acceptFits({ actor, input }: { actor: Actor | null; input: unknown }): Promise<FitsAccepted> {
   requirePermission(actor, 'fits:review');
-  const data = AcceptManyInput.parse(input);
+  const data = AcceptFitsRequest.parse(input);
   const serials = data.parts.map((p) => p.serial);
   if (new Set(serials).size !== serials.length) throw new AppError('part_listed_twice');
   return getDb().transaction(async (tx) => {

@@ -1,22 +1,13 @@
 import { and, asc, eq, ne, sql, type SQL } from 'drizzle-orm';
-import { z } from 'zod';
 import type { FitResult } from '~/core/fit/definitions';
+import { ReviewQueueQuery, type ReviewQueue } from '~/contracts/review';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 
-export const ReviewQueueInput = z.object({
-  /**
-   * `model_disagrees` lists parts whose fitted model puts VGS away from the measured one (an
-   * advisory flag: the parts are not held, this list only informs).
-   */
-  status: z.enum(['needs_review', 'retest', 'model_disagrees']).default('needs_review'),
-  limit: z.coerce.number().int().min(1).max(500).default(200),
-});
-
 /** Parts waiting for a person, oldest fit first, with their flags in plain words. */
-export async function listReviewQueue({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function listReviewQueue({ actor, input }: { actor: Actor | null; input: unknown }): Promise<ReviewQueue> {
   requirePermission(actor, 'fits:review');
-  const f = ReviewQueueInput.parse(input ?? {});
+  const f = ReviewQueueQuery.parse(input ?? {});
   const db = getDb();
   const which: SQL =
     f.status === 'model_disagrees'

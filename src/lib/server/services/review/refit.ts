@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { fitCurveFamily } from '~/core/fit/fit-curve-family';
+import type { RefitResult } from '~/contracts/review';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -16,7 +17,7 @@ import { RefitInput } from './schemas';
  * kept on the sweep and the new fit becomes the part's current one; the part stays in the
  * review queue until someone accepts it (or marks it for retest).
  */
-export async function refitWithExclusions({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function refitWithExclusions({ actor, input }: { actor: Actor | null; input: unknown }): Promise<RefitResult> {
   requirePermission(actor, 'fits:review');
   const data = RefitInput.parse(input);
   const { out, mails } = await getDb().transaction(async (tx) => {

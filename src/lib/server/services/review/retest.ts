@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import type { RetestResult } from '~/contracts/review';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -8,7 +9,7 @@ import { loadReviewTarget } from './load-target';
 import { ReviewTarget } from './schemas';
 
 /** Sends the part back to be measured again; its next sweep takes it out of `retest`. */
-export async function markForRetest({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function markForRetest({ actor, input }: { actor: Actor | null; input: unknown }): Promise<RetestResult> {
   requirePermission(actor, 'fits:review');
   const data = ReviewTarget.parse(input);
   const { out, mails } = await getDb().transaction(async (tx) => {

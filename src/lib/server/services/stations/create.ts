@@ -1,19 +1,14 @@
 import { randomBytes, randomUUID } from 'node:crypto';
-import { z } from 'zod';
+import { CreateStationInput, type StationCreated } from '~/contracts/stations';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { hashStationToken, requirePermission, type Actor } from '~/lib/server/identity';
-
-export const CreateStationInput = z.object({
-  name: z.string().trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),
-});
-export type CreateStationInput = z.infer<typeof CreateStationInput>;
 
 /**
  * Makes a test-station token. The token itself is returned once, here, and never stored:
  * the database keeps its SHA-256 and a short prefix to recognise it by.
  */
-export async function createStationToken({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function createStationToken({ actor, input }: { actor: Actor | null; input: unknown }): Promise<StationCreated> {
   requirePermission(actor, 'stations:manage');
   const data = CreateStationInput.parse(input);
   const token = `sls_${randomBytes(24).toString('base64url')}`;

@@ -1,17 +1,9 @@
 import { desc } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { StationJson } from '~/contracts/stations';
 
-export interface StationRow {
-  id: string;
-  name: string;
-  token_prefix: string;
-  created_at: string;
-  last_used_at: string | null;
-  revoked_at: string | null;
-}
-
-export async function listStations({ actor }: { actor: Actor | null }): Promise<StationRow[]> {
+export async function listStations({ actor }: { actor: Actor | null }): Promise<StationJson[]> {
   requirePermission(actor, 'stations:manage');
   const rows = await getDb().select().from(schema.stationToken).orderBy(desc(schema.stationToken.createdAt));
   return rows.map((r) => ({

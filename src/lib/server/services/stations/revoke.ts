@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
+import type { StationRevoked } from '~/contracts/stations';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -8,7 +9,7 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 export const RevokeStationInput = z.object({ id: z.string().min(1) });
 
 /** Revokes a token at once: the middleware refuses it from the next request on. */
-export async function revokeStationToken({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function revokeStationToken({ actor, input }: { actor: Actor | null; input: unknown }): Promise<StationRevoked> {
   requirePermission(actor, 'stations:manage');
   const { id } = RevokeStationInput.parse(input);
   return getDb().transaction(async (tx) => {

@@ -1,28 +1,12 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { allowedNextStatuses, describePartStatus, type PartStatus } from '~/core/stock/part-transitions';
+import { allowedNextStatuses, describePartStatus } from '~/core/stock/part-transitions';
+import type { AwaitingLotList, PartLookup } from '~/contracts/stock';
 import { cleanScannedSerial } from '~/core/stock/scan-batch';
 import { getDb, schema } from '~/db/client';
 import { alias } from 'drizzle-orm/pg-core';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-
-export interface PartLookup {
-  serial: string;
-  status: PartStatus;
-  status_words: string;
-  device_type: string;
-  lot: string | null;
-  bin_code: string | null;
-  bin_label: string | null;
-  bin_in_active_plan: boolean;
-  location: string | null;
-  home_location: string | null;
-  idss_a: number | null;
-  vp_v: number | null;
-  /** What stores can do with it now. */
-  can: { receive: boolean; move: boolean; scrap: boolean; return: boolean };
-}
 
 const home = alias(schema.location, 'home_location');
 
@@ -80,7 +64,7 @@ export async function lookupPart({ actor, serial }: { actor: Actor | null; seria
 }
 
 /** Lots with accepted parts not yet received: the stores' work waiting. */
-export async function listAwaitingReceipt({ actor }: { actor: Actor | null }) {
+export async function listAwaitingReceipt({ actor }: { actor: Actor | null }): Promise<AwaitingLotList> {
   requirePermission(actor, 'stock:read');
   const rows = await getDb()
     .select({

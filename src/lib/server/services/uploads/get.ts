@@ -1,38 +1,18 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
+import type { UploadFileStatus, UploadStatus } from '~/contracts/uploads';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { maySeeUpload } from '~/lib/access';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { fitRetries, type FitRetry } from '~/lib/server/jobs/fit-attempts';
+import { fitRetries } from '~/lib/server/jobs/fit-attempts';
 import type { SweepNoteJson } from '../intake/ingest-stored-file';
-
-export interface UploadFileStatus {
-  id: number;
-  name: string;
-  size_bytes: number;
-  sha256: string;
-  state: 'queued' | 'fitted' | 'needs_review' | 'rejected';
-  reason: string | null;
-  error_code: string | null;
-  serials: string[];
-  /** The earlier file with the same bytes; state, reason and serials are that file's. */
-  duplicate_of: { file_id: number; upload_id: string; name: string } | null;
-  finished_at: string | null;
-  /**
-   * What the intake did to the file's parts that the uploader should know (a gate-leak point
-   * left out of the fit, a short curve kept or dropped), per part serial.
-   */
-  notes: { serial: string; code: string; vgs_v: number | null; lines: number[]; message: string }[];
-  /** A queued file whose fitting failed before (an error, or its worker died) and is being tried again; else null. */
-  retry: FitRetry | null;
-}
 
 /**
  * One upload and the state of each of its files. People who may upload see any upload; a
  * test station sees only its own.
  */
-export async function getUpload({ actor, id }: { actor: Actor | null; id: unknown }) {
+export async function getUpload({ actor, id }: { actor: Actor | null; id: unknown }): Promise<UploadStatus> {
   requirePermission(actor, 'sweeps:upload');
   const uploadId = z.string().uuid('must be an upload id').parse(id);
   const db = getDb();
@@ -84,5 +64,5 @@ export async function getUpload({ actor, id }: { actor: Actor | null; id: unknow
   });
   const counts = { queued: 0, fitted: 0, needs_review: 0, rejected: 0 };
   for (const f of out) counts[f.state]++;
-  return { upload_id: upload.id, created_at: upload.createdAt.toISOString(), tags: upload.tags, done: counts.queued === 0, counts, files: out };
+  return { upload_id: upload.id, created_at: upload.createdAt.toISOString(), tags: upload.tags as UploadStatus['tags'], done: counts.queued === 0, counts, files: out };
 }

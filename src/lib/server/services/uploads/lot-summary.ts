@@ -1,8 +1,8 @@
 import { eq, inArray } from 'drizzle-orm';
-import { z } from 'zod';
-import { lotSummaryText, summarizeUploadByLot, type LotSummary } from '~/core/intake/summarize-upload-by-lot';
+import { lotSummaryText, summarizeUploadByLot } from '~/core/intake/summarize-upload-by-lot';
 import { unknownLotOf } from '~/core/intake/upload-verdict';
 import { formatDateTime } from '~/core/units/format-date';
+import { LotSummaryMailRequest, type LotSummaryMailed, type UploadSummaryJson } from '~/contracts/uploads';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { serverEnv } from '~/lib/server/env';
@@ -10,20 +10,6 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { deliverMail } from '~/lib/server/mail';
 import { getUpload } from './get';
-
-export interface LotSummaryJson extends LotSummary {
-  device_type: string | null;
-  supplier: string;
-  supplier_email: string;
-}
-
-export interface UploadSummaryJson {
-  upload_id: string;
-  created_at: string;
-  uploaded_by: string;
-  done: boolean;
-  lots: LotSummaryJson[];
-}
 
 /**
  * One upload summarised per lot: each file under the lot of its parts (a refused file under
@@ -78,18 +64,13 @@ export async function getUploadLotSummary({ actor, id }: { actor: Actor | null; 
   };
 }
 
-export const MailLotSummaryInput = z.object({
-  lot: z.string().trim().min(1, 'name the lot whose summary is mailed'),
-  to: z.email('give the supplier contact’s e-mail address, e.g. quality@supplier.example'),
-});
-
 /**
  * Mails one lot's summary of an upload to the supplier contact through the configured SMTP
  * server, and keeps the address on the lot for next time. The send is audited on the lot.
  */
-export async function mailLotSummary({ actor, id, input }: { actor: Actor | null; id: unknown; input: unknown }) {
+export async function mailLotSummary({ actor, id, input }: { actor: Actor | null; id: unknown; input: unknown }): Promise<LotSummaryMailed> {
   requirePermission(actor, 'lots:create');
-  const data = MailLotSummaryInput.parse(input);
+  const data = LotSummaryMailRequest.parse(input);
   const summary = await getUploadLotSummary({ actor, id });
   const lot = summary.lots.find((l) => l.lot === data.lot);
   if (!lot) {

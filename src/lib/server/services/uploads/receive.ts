@@ -8,18 +8,11 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { getBoss, QUEUES } from '~/lib/server/jobs/boss';
 import { storeUploadBytes } from '~/lib/server/storage/uploads-fs';
 import { MAX_FILES_PER_UPLOAD, UploadTags } from './schemas';
+import type { UploadReceived } from '~/contracts/uploads';
 
 export interface IncomingFile {
   name: string;
   bytes: Uint8Array;
-}
-
-export interface ReceivedFile {
-  id: number;
-  name: string;
-  state: 'queued' | 'fitted' | 'needs_review' | 'rejected';
-  reason: string | null;
-  duplicate_of: number | null;
 }
 
 const MIB = 1024 * 1024;
@@ -42,7 +35,7 @@ export async function receiveSweepUpload({
   tags: unknown;
   /** false: record the files but queue no job (the demo seed then ingests them itself). */
   queue?: boolean;
-}) {
+}): Promise<UploadReceived> {
   requirePermission(actor, 'sweeps:upload');
   const parsedTags = UploadTags.parse(tags ?? {});
   if (files.length === 0) {
@@ -65,7 +58,7 @@ export async function receiveSweepUpload({
     .from(schema.uploadFile)
     .where(and(inArray(schema.uploadFile.sha256, shas), isNull(schema.uploadFile.duplicateOfId), ne(schema.uploadFile.state, 'rejected')))
     .orderBy(schema.uploadFile.id);
-  const originalBySha = new Map<string, { id: number; state: ReceivedFile['state'] }>();
+  const originalBySha = new Map<string, { id: number; state: UploadReceived['files'][number]['state'] }>();
   for (const e of earlier) if (!originalBySha.has(e.sha256)) originalBySha.set(e.sha256, { id: e.id, state: e.state });
 
   // The jobs are queued in the same transaction as the files: a file is never recorded
@@ -80,7 +73,7 @@ export async function receiveSweepUpload({
     // sent earlier in this same request at its first copy.
     const ids = await reserveUploadFileIds(tx, files.length);
     const firstIdBySha = new Map<string, number>();
-    const rows: ReceivedFile[] = [];
+    const rows: UploadReceived['files'] = [];
     const values = files.map((f, i) => {
       const s = stored[i];
       const id = ids[i];

@@ -5,13 +5,14 @@ import { getAuth } from '~/lib/server/auth';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { UserInvited } from '~/contracts/users';
 import { InviteUserInput } from './schemas';
 
 /**
  * Creates the account with a random password nobody knows, records the invitation, and mails
  * a link where the invited person chooses their own password.
  */
-export async function inviteUser({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function inviteUser({ actor, input }: { actor: Actor | null; input: unknown }): Promise<UserInvited> {
   requirePermission(actor, 'users:manage');
   const data = InviteUserInput.parse(input);
   const db = getDb();

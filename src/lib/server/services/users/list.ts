@@ -2,18 +2,9 @@ import { asc, isNull, eq, and } from 'drizzle-orm';
 import { getDb, schema } from '~/db/client';
 import { parseRoles } from '~/lib/access';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { UserJson } from '~/contracts/users';
 
-export interface UserRow {
-  id: string;
-  email: string;
-  name: string;
-  roles: string[];
-  disabled: boolean;
-  invitationPending: boolean;
-  createdAt: string;
-}
-
-export async function listUsers({ actor }: { actor: Actor | null }): Promise<UserRow[]> {
+export async function listUsers({ actor }: { actor: Actor | null }): Promise<UserJson[]> {
   requirePermission(actor, 'users:manage');
   const db = getDb();
   const rows = await db

@@ -3,10 +3,11 @@ import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { UserDisabledSet } from '~/contracts/users';
 import { SetDisabledInput } from './schemas';
 
 /** Disables (bans) or re-enables an account; disabling also ends its sessions. */
-export async function setUserDisabled({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function setUserDisabled({ actor, input }: { actor: Actor | null; input: unknown }): Promise<UserDisabledSet> {
   requirePermission(actor, 'users:manage');
   const data = SetDisabledInput.parse(input);
   if (data.userId === actor.userId) throw new AppError('own_account_disabled');

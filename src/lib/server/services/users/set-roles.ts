@@ -4,9 +4,10 @@ import { parseRoles } from '~/lib/access';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
+import type { UserRolesSet } from '~/contracts/users';
 import { SetRolesInput } from './schemas';
 
-export async function setUserRoles({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function setUserRoles({ actor, input }: { actor: Actor | null; input: unknown }): Promise<UserRolesSet> {
   requirePermission(actor, 'users:manage');
   const data = SetRolesInput.parse(input);
   if (data.userId === actor.userId && !data.roles.includes('admin')) {
