@@ -91,9 +91,7 @@ export async function createMatchProposal({ actor, input }: { actor: Actor | nul
   let fresh = new Map<number, PartJson>();
   for (let attempt = 0; attempt < 3; attempt++) {
     const input = { candidates, operatingPoint, shape: req.shape, count: req.count, tolerances, options: { sameLot: req.same_lot }, temperatureC: req.temperature_c };
-    const tc0 = performance.now();
     result = await withStockFigures(stock, candidates, operatingPoint, req.temperature_c, (evaluated) => chooseMatchedSets({ ...input, evaluated }));
-    console.log('choose total', (performance.now() - tc0).toFixed(1), 'since start', (performance.now() - started).toFixed(1));
     const chosen = result.sets.flatMap((s) => s.parts.map((p) => stock.partIds[stock.slotBySerial.get(p.id)!]!));
     fresh = await readChosenParts(type, chosen);
     const gone = new Set(chosen.filter((id) => fresh.get(id)?.status !== 'in_stock'));
