@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { PART_STATUSES } from '~/core/stock/part-transitions';
 import { PageFields } from './common';
+import { PartJson } from './parts';
 
 export const BIN_SORT_KEYS = ['code', 'label', 'location', 'on_hand', 'reserved', 'issued', 'low_stock_threshold', 'device_type'] as const;
 export type BinSortKey = (typeof BIN_SORT_KEYS)[number];
@@ -75,3 +77,31 @@ export const BinStockPage = z.object({
   dir: z.enum(['asc', 'desc']),
 });
 export type BinStockPage = z.infer<typeof BinStockPage>;
+
+/** `GET /api/bins/{id}/parts`: the query; `status` is a comma-separated list of part statuses (all when absent). */
+export const BinPartsQuery = z.object({
+  status: z
+    .string()
+    .optional()
+    .transform((s) => (s ? s.split(',').filter(Boolean) : []))
+    .pipe(z.array(z.enum(PART_STATUSES))),
+  page: z.coerce.number().int().min(1).default(1),
+  page_size: z.coerce.number().int().min(1).max(500).default(100),
+});
+export type BinPartsQuery = z.infer<typeof BinPartsQuery>;
+
+/** A part in a bin: who and where it is, with its current fit's IDSS, VP and gfs (null without a fit). */
+export const BinPartJson = PartJson.extend({
+  idss_a: z.number().nullable(),
+  vp_v: z.number().nullable(),
+  gfs_s: z.number().nullable(),
+});
+export type BinPartJson = z.infer<typeof BinPartJson>;
+
+/** `GET /api/bins/{id}/parts`: the bin and a page of its parts, by serial. */
+export const BinPartsPage = z.object({
+  bin: BinJson,
+  parts: z.array(BinPartJson),
+  ...PageFields,
+});
+export type BinPartsPage = z.infer<typeof BinPartsPage>;

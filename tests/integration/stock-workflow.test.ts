@@ -3,6 +3,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, partsBySerial, uniqueName } from './stock-fixtures';
+import { BinPartsPage } from '~/contracts/bins';
 import { LocationList, LocationRecord } from '~/contracts/locations';
 import { AwaitingLotList, PartLookup, StockActionResult } from '~/contracts/stock';
 import { expectContract } from '../helpers/contract';
@@ -241,6 +242,9 @@ describe('binning, receiving and counting', () => {
     const bin = map.bins.find((b: { code: string }) => b.code === 'I02-P02');
     const list = await designer.fetch(`/api/bins/${bin.id}/parts`);
     const body = await list.json();
+    // Each part as every response names it (partJson), with the fit's figures on top.
+    expectContract(BinPartsPage, body);
+    expect(body.parts[0]).toMatchObject({ device_type: body.bin.device_type, bin_code: 'I02-P02', bin_label: body.bin.label });
     expect(body.parts.map((p: { serial: string }) => p.serial).sort()).toEqual(
       parts.filter((_, i) => CASES[i].code === 'I02-P02').map((p) => p.serial).sort(),
     );

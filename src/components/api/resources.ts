@@ -1,5 +1,5 @@
 import type { BinPlanList } from '~/contracts/bin-plans';
-import type { BinStockPage } from '~/contracts/bins';
+import type { BinPartsPage, BinStockPage } from '~/contracts/bins';
 import type { LocationList } from '~/contracts/locations';
 import type { LotList } from '~/contracts/lots';
 import type { MatchableTypeList } from '~/contracts/match';
@@ -32,3 +32,4 @@ export const useReviewQueue = (status: ReviewQueueQuery['status']) => useApi<Rev
 export const useAwaitingReceipt = () => useApi<AwaitingLotList>('/api/stock/awaiting');
 export const useUsers = () => useApi<UserList>('/api/admin/users');
 export const useStations = () => useApi<StationList>('/api/admin/stations');
+export const useBinParts = (binId: number, query: string) => useApi<BinPartsPage>(`/api/bins/${binId}/parts?${query}`);

@@ -1,17 +1,12 @@
 import { formatQuantity } from '~/core/units/format-quantity';
-import { useApi } from '../api';
+import { useBinParts } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import type { MapBin } from './bin-grid';
-
-interface PartsInBin {
-  parts: { serial: string; status: string; idss_a: number | null; vp_v: number | null; lot: string | null; location: string | null }[];
-  total: number;
-}
 
 const TAG: Record<string, string> = { in_stock: 'tag-ok', accepted: 'tag-review', reserved: 'tag-held', issued: 'tag-plain', returned: 'tag-fault' };
 
 export default function BinPartsList({ bin }: { bin: MapBin }) {
-  const { data, error, loading, reload } = useApi<PartsInBin>(`/api/bins/${bin.id}/parts?page_size=200`);
+  const { data, error, loading, reload } = useBinParts(bin.id, 'page_size=200');
   return (
     <section className="card p-4" aria-label={`Parts in bin ${bin.code}`}>
       <h2 className="text-lg">Bin {bin.code}</h2>

@@ -83,7 +83,7 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
     get: { summary: 'One bin with its counts', response: binContracts.BinJson },
     put: { summary: "Set a bin's home location and/or low-stock threshold", body: binContracts.UpdateBinInput, response: binContracts.BinJson },
   },
-  '/api/bins/{id}/parts': { get: { summary: 'Parts in one bin with their figures and location' } },
+  '/api/bins/{id}/parts': { get: { summary: 'Parts in one bin with their figures and location', query: binContracts.BinPartsQuery, response: binContracts.BinPartsPage } },
   '/api/bins/export.csv': { get: { summary: 'The bin stock table as CSV (every page)', query: binContracts.BinStockQuery, produces: csv } },
   '/api/bins/map': { get: { summary: "A device type's bins as a grid over its plan axes", query: z.object({ device_type: z.string() }) } },
   '/api/estimates/mixer': { post: { summary: 'Square-law mixer products for data-sheet IDSS/VP or a stored part', body: MixerRequest, response: estimateContracts.MixerEstimateJson } },

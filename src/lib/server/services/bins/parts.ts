@@ -1,40 +1,31 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
-import { PART_STATUSES, type PartStatus } from '~/core/stock/part-transitions';
+import { BinPartsQuery, type BinPartsPage } from '~/contracts/bins';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { z } from 'zod';
+import { partJson } from '../parts/part-json';
 import { loadBin } from './get';
 
-const Query = z.object({
-  status: z
-    .string()
-    .optional()
-    .transform((s) => (s ? s.split(',').filter(Boolean) : []))
-    .pipe(z.array(z.enum(PART_STATUSES))),
-  page: z.coerce.number().int().min(1).default(1),
-  page_size: z.coerce.number().int().min(1).max(500).default(100),
-});
-
 /** Parts sitting in one bin, with their figures and where they are; for the bin map's list. */
-export async function listPartsInBin({ actor, binId, query }: { actor: Actor | null; binId: number; query: unknown }) {
+export async function listPartsInBin({ actor, binId, query }: { actor: Actor | null; binId: number; query: unknown }): Promise<BinPartsPage> {
   requirePermission(actor, 'stock:read');
-  const q = Query.parse(query);
+  const q = BinPartsQuery.parse(query);
   const db = getDb();
   const bin = await loadBin(db, binId);
   const where = [eq(schema.part.binId, binId)];
-  if (q.status.length) where.push(inArray(schema.part.status, q.status as PartStatus[]));
+  if (q.status.length) where.push(inArray(schema.part.status, q.status));
   const rows = await db
     .select({
-      serial: schema.part.serial,
-      status: schema.part.status,
+      part: { serial: schema.part.serial, status: schema.part.status },
+      type: { name: schema.deviceType.name, channel: schema.deviceType.channel },
       idssA: schema.fit.idssA,
       vpV: schema.fit.vpV,
       gfsS: schema.fit.gfsS,
-      lot: schema.lot.code,
-      location: schema.location.name,
+      lotCode: schema.lot.code,
+      locationName: schema.location.name,
       total: sql<number>`count(*) over ()::int`,
     })
     .from(schema.part)
+    .innerJoin(schema.deviceType, eq(schema.deviceType.id, schema.part.deviceTypeId))
     .leftJoin(schema.fit, eq(schema.fit.id, schema.part.currentFitId))
     .leftJoin(schema.lot, eq(schema.lot.id, schema.part.lotId))
     .leftJoin(schema.location, eq(schema.location.id, schema.part.locationId))
@@ -44,7 +35,18 @@ export async function listPartsInBin({ actor, binId, query }: { actor: Actor | n
     .offset((q.page - 1) * q.page_size);
   return {
     bin,
-    parts: rows.map((r) => ({ serial: r.serial, status: r.status, idss_a: r.idssA, vp_v: r.vpV, gfs_s: r.gfsS, lot: r.lot, location: r.location })),
+    parts: rows.map((r) => ({
+      ...partJson({
+        part: r.part,
+        type: r.type,
+        lot: r.lotCode === null ? null : { code: r.lotCode },
+        bin,
+        location: r.locationName === null ? null : { name: r.locationName },
+      }),
+      idss_a: r.idssA,
+      vp_v: r.vpV,
+      gfs_s: r.gfsS,
+    })),
     total: rows[0]?.total ?? 0,
     page: q.page,
     page_size: q.page_size,
