@@ -190,19 +190,29 @@ describe('architecture boundaries', () => {
     expect(found, 'an endpoint calls one service').toEqual([]);
   });
 
-  it('islands (src/components) import no server module; `import type` from a service is allowed', () => {
-    // A type-only import is erased by the compiler, so nothing of the server reaches the
-    // browser bundle; the shared response contracts in src/contracts are meant to replace
-    // these imports one by one.
+  it('islands (src/components) import no server module, not even `import type` from a service', () => {
+    // The shapes an island reads are the contracts in src/contracts: a type taken from a
+    // service would tie the browser code to how the server builds its answer.
     const islands = sources.filter((f) => under('src/components')(f.path));
     const found = offences(islands, (_f, edge) => {
       if (under('src/db')(edge.target)) return `imports ${quoted(edge)}; islands fetch JSON from /api/`;
-      if (under('src/lib/server')(edge.target) && !edge.typeOnly) return `imports ${quoted(edge)} as a value; use \`import type\` or a contract in src/contracts`;
+      if (under('src/lib/server')(edge.target)) return `imports ${quoted(edge)}; read the answer's contract from src/contracts`;
       if (edge.target === null && (isNodeBuiltin(edge.specifier) || SERVER_PACKAGES.has(packageName(edge.specifier)) || edge.specifier.startsWith('astro:')))
         return `imports the server-side package '${edge.specifier}'`;
       return null;
     });
     expect(found, 'islands run in the browser').toEqual([]);
+  });
+
+  it('src/contracts imports zod, src/core and the role list only, so every layer may import it', () => {
+    const contracts = sources.filter((f) => under('src/contracts')(f.path));
+    expect(contracts.length).toBeGreaterThan(5);
+    const found = offences(contracts, (_f, edge) => {
+      if (edge.target === null) return edge.specifier === 'zod' ? null : `imports the package '${edge.specifier}'`;
+      if (under('src/contracts')(edge.target) || under('src/core')(edge.target) || edge.target === 'src/lib/access') return null;
+      return `imports ${quoted(edge)}`;
+    });
+    expect(found, 'contracts are plain data shared by services, endpoints and islands').toEqual([]);
   });
 
   it('src/db depends on nothing in src/lib, src/pages or src/components', () => {
