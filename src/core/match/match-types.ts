@@ -1,4 +1,4 @@
-import type { FigureSource, PartBasis } from '../operating-point/part-operating-figures';
+import type { PartBasis, PartFigures } from '../operating-point/part-operating-figures';
 import type { FigureArrays } from './evaluate-at-operating-point';
 
 /**
@@ -59,23 +59,12 @@ export interface MatchInput {
   evaluated?: { figures: FigureArrays; unusable: Uint8Array };
 }
 
-/** Figures of one part at the operating point it actually sees in its set. */
-export interface OperatingFigures {
-  idA: number;
-  vdsV: number;
-  vgsV: number;
-  gmS: number;
-  gosS: number;
-  /** IDSS at this part's VDS (measured where the sweep reaches it). */
-  idssA: number;
-  /** VGS − VTO. */
-  vdsSatV: number;
-  /** One standard deviation of `vgsV` (V); 0 when not known. */
-  vgsSigmaV: number;
-  source: FigureSource;
-  /** VGS correction applied to bring the part to the compare temperature (V). */
-  temperatureShiftV: number;
-}
+/**
+ * Figures of one part at the operating point it actually sees in its set: `PartFigures` (the one
+ * source, `partOperatingFigures`) without the model's reason and the compare temperature (the
+ * request's), and with `vgsSigmaV` 0 when not known.
+ */
+export type OperatingFigures = Omit<PartFigures, 'modelReason' | 'temperatureC'>;
 
 export type PartEvaluation =
   | { usable: true; figures: OperatingFigures }
