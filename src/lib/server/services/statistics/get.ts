@@ -9,7 +9,7 @@ import {
   type StatisticsPartRow,
   type StatisticsTypeInfo,
   type TrendLotInfo,
-} from './compute-report';
+} from '~/core/statistics/type-report';
 import { StatisticsQuery } from './schemas';
 
 

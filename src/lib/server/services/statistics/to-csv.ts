@@ -1,4 +1,4 @@
-import { FIGURES } from './compute-report';
+import { FIGURES } from '~/core/statistics/type-report';
 import type { StatisticsReport } from '~/contracts/statistics';
 import type { StatisticsTable } from './schemas';
 import { writeCsv as csv } from '~/core/csv/write-csv';

@@ -1,4 +1,4 @@
-import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown, type Summary } from '~/core/statistics';
+import { binShares, cpk, histogram, lotTrend, summarize, yieldBreakdown, type Summary } from './index';
 import { idssInDatasheetSign } from '~/core/units/datasheet-sign';
 
 /** Pure: builds the statistics report from loaded rows. No I/O. */
