@@ -1,6 +1,8 @@
 import { z } from 'zod';
+import { BinPlan } from '~/core/binning/bin-plan';
 import { PART_STATUSES } from '~/core/stock/part-transitions';
-import { PageFields } from './common';
+import { BinPlanDeviceType } from './bin-plans';
+import { PageFields, PartStatus } from './common';
 import { PartJson } from './parts';
 
 export const BIN_SORT_KEYS = ['code', 'label', 'location', 'on_hand', 'reserved', 'issued', 'low_stock_threshold', 'device_type'] as const;
@@ -105,3 +107,15 @@ export const BinPartsPage = z.object({
   ...PageFields,
 });
 export type BinPartsPage = z.infer<typeof BinPartsPage>;
+
+/** `GET /api/bins/map`: a device type's active plan, its bins with counts and its binned parts' (IDSS, VP) points. */
+export const BinMapJson = z.object({
+  device_type: BinPlanDeviceType,
+  /** Null when the type has no active plan (then no bins and no points). */
+  plan: z.object({ id: z.number().int(), version: z.number().int(), name: z.string(), definition: BinPlan }).nullable(),
+  bins: z.array(BinJson),
+  points: z.array(z.object({ serial: z.string(), idss_a: z.number(), vp_v: z.number(), status: PartStatus, bin_id: z.number().int().nullable() })),
+  /** Parts left off the scatter when there are more than the limit. */
+  points_left_off: z.number().int(),
+});
+export type BinMapJson = z.infer<typeof BinMapJson>;

@@ -3,7 +3,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { closeDb, getDb, schema } from '~/db/client';
 import { signIn, type Session } from '../helpers/http';
 import { COARSE_PLAN, createAcceptedParts, createTestType, partsBySerial, uniqueName } from './stock-fixtures';
-import { BinPartsPage } from '~/contracts/bins';
+import { BinMapJson, BinPartsPage } from '~/contracts/bins';
 import { LocationList, LocationRecord } from '~/contracts/locations';
 import { AwaitingLotList, PartLookup, StockActionResult } from '~/contracts/stock';
 import { expectContract } from '../helpers/contract';
@@ -236,6 +236,7 @@ describe('binning, receiving and counting', () => {
     const res = await designer.fetch(`/api/bins/map?device_type=${encodeURIComponent(type.name)}`);
     expect(res.status).toBe(200);
     const map = await res.json();
+    expectContract(BinMapJson, map);
     expect(map.plan.version).toBe(1);
     expect(map.bins).toHaveLength(17);
     expect(map.points.length).toBeGreaterThanOrEqual(10);

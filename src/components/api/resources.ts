@@ -1,5 +1,6 @@
 import type { BinPlanList } from '~/contracts/bin-plans';
-import type { BinPartsPage, BinStockPage } from '~/contracts/bins';
+import type { BinMapJson, BinPartsPage, BinStockPage } from '~/contracts/bins';
+import type { DeviceTypeList } from '~/contracts/device-types';
 import type { LocationList } from '~/contracts/locations';
 import type { LotList } from '~/contracts/lots';
 import type { MatchableTypeList } from '~/contracts/match';
@@ -33,3 +34,6 @@ export const useAwaitingReceipt = () => useApi<AwaitingLotList>('/api/stock/awai
 export const useUsers = () => useApi<UserList>('/api/admin/users');
 export const useStations = () => useApi<StationList>('/api/admin/stations');
 export const useBinParts = (binId: number, query: string) => useApi<BinPartsPage>(`/api/bins/${binId}/parts?${query}`);
+export const useDeviceTypes = () => useApi<DeviceTypeList>('/api/admin/device-types');
+/** No request while no type is chosen. */
+export const useBinMap = (deviceType: string | null | undefined) => useApi<BinMapJson>(deviceType ? `/api/bins/map?device_type=${encodeURIComponent(deviceType)}` : null);

@@ -1,25 +1,12 @@
 import { useCallback, useContext, useEffect, useMemo, useRef, useState } from 'react';
 import { Axis, DataContext, GlyphSeries, Grid, XYChart, buildChartTheme } from '@visx/xychart';
-import { useApi } from '../api';
+import type { BinMapJson } from '~/contracts/bins';
+import { useBinMap } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
 import { gridCells, mapExtent, type GridCell, type MapBin } from './bin-grid';
 import BinPartsList from './BinPartsList';
 
-interface MapPoint {
-  serial: string;
-  idss_a: number;
-  vp_v: number;
-  status: string;
-  bin_id: number | null;
-}
-
-interface MapData {
-  device_type: { id: number; name: string; channel: 'n' | 'p'; vds_test_v: number };
-  plan: { id: number; version: number; name: string } | null;
-  bins: MapBin[];
-  points: MapPoint[];
-  points_left_off: number;
-}
+type MapPoint = BinMapJson['points'][number];
 
 const STATUS_COLOUR: Record<string, string> = {
   in_stock: '#14524f',
@@ -97,7 +84,7 @@ function useWidth() {
 
 export default function BinMap({ deviceTypes, initialType }: { deviceTypes: { id: number; name: string }[]; initialType?: string }) {
   const [type, setType] = useState(initialType ?? deviceTypes[0]?.name ?? '');
-  const { data, error, loading, reload } = useApi<MapData>(type ? `/api/bins/map?device_type=${encodeURIComponent(type)}` : null);
+  const { data, error, loading, reload } = useBinMap(type);
   const [selected, setSelected] = useState<MapBin | null>(null);
   const { ref, width } = useWidth();
   useEffect(() => setSelected(null), [type]);

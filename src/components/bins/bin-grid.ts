@@ -2,22 +2,13 @@
  * Rectangles of a bin plan's grid on the (IDSS, VP) map, in SI. A plan without one of the two
  * axes spans the whole chart in that direction; a plan binned on neither draws no grid.
  */
-export interface MapBin {
-  id: number;
-  code: string;
-  label: string;
-  is_hold: boolean;
-  on_hand: number;
-  reserved: number;
-  issued: number;
-  low: boolean;
-  low_stock_threshold: number;
-  location: { name: string } | null;
-  idss_lo_a: number | null;
-  idss_hi_a: number | null;
-  vp_lo_v: number | null;
-  vp_hi_v: number | null;
-}
+import type { BinJson } from '~/contracts/bins';
+
+/** What the grid reads of a bin. */
+export type MapBin = Pick<
+  BinJson,
+  'id' | 'code' | 'label' | 'is_hold' | 'on_hand' | 'reserved' | 'issued' | 'low' | 'low_stock_threshold' | 'location' | 'idss_lo_a' | 'idss_hi_a' | 'vp_lo_v' | 'vp_hi_v'
+>;
 
 export interface GridCell {
   bin: MapBin;

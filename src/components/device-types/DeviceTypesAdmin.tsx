@@ -1,23 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { formatOpenRange } from '~/core/units/format-quantity';
 import { apiFetch } from '../ui/api-client';
-import { useApi } from '../api';
+import type { DeviceTypeJson } from '~/contracts/device-types';
+import { useDeviceTypes } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
-
-interface DeviceTypeRow {
-  id: number;
-  name: string;
-  channel: 'n' | 'p';
-  description: string;
-  vds_test_v: number;
-  nominal_temperature_c: number;
-  vtotc_v_per_c: number;
-  betatce_pct_per_c: number;
-  idss_min_a: number | null;
-  idss_max_a: number | null;
-  vp_min_v: number | null;
-  vp_max_v: number | null;
-}
 
 const num = (v: FormDataEntryValue | null) => {
   const s = String(v ?? '').trim().replace(',', '.');
@@ -28,7 +14,7 @@ const mA = (v: FormDataEntryValue | null) => {
   return n === null ? null : n / 1000;
 };
 
-function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeRow; onSaved: (msg: string) => void; onCancel?: () => void }) {
+function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeJson; onSaved: (msg: string) => void; onCancel?: () => void }) {
   const [error, setError] = useState<string>();
   const [channel, setChannel] = useState<'n' | 'p'>(initial?.channel ?? 'n');
   async function submit(e: FormEvent<HTMLFormElement>) {
@@ -128,7 +114,7 @@ const limits = (lo: number | null, hi: number | null, unit: 'A' | 'V') => format
 
 /** Device types: the channel, IDSS test VDS, nominal temperature and spec limits fitting uses. */
 export default function DeviceTypesAdmin() {
-  const { data, error, loading, reload } = useApi<{ device_types: DeviceTypeRow[] }>('/api/admin/device-types');
+  const { data, error, loading, reload } = useDeviceTypes();
   const [editing, setEditing] = useState<number | null>(null);
   const [message, setMessage] = useState<string>();
   const saved = (msg: string) => {

@@ -3,6 +3,7 @@ import * as auditContracts from '~/contracts/audit';
 import * as binPlanContracts from '~/contracts/bin-plans';
 import * as binContracts from '~/contracts/bins';
 import * as commonContracts from '~/contracts/common';
+import * as deviceTypeContracts from '~/contracts/device-types';
 import * as estimateContracts from '~/contracts/estimates';
 import * as locationContracts from '~/contracts/locations';
 import * as lotContracts from '~/contracts/lots';
@@ -53,10 +54,10 @@ const csv = 'text/csv';
 export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperation>>> = {
   '/api/admin/audit': { get: { summary: 'The audit log, newest first, filtered and paged', response: auditContracts.AuditLogPage } },
   '/api/admin/device-types': {
-    get: { summary: 'Device types with their test conditions and specification limits' },
-    post: { summary: 'Create a device type', body: DeviceTypeInput, status: 201 },
+    get: { summary: 'Device types with their test conditions and specification limits', response: deviceTypeContracts.DeviceTypeList },
+    post: { summary: 'Create a device type', body: DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson, status: 201 },
   },
-  '/api/admin/device-types/{id}': { put: { summary: 'Change a device type', body: DeviceTypeInput } },
+  '/api/admin/device-types/{id}': { put: { summary: 'Change a device type', body: DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson } },
   '/api/admin/stations': {
     get: { summary: 'Test-station tokens (names and dates, never the token)', response: stationContracts.StationList },
     post: { summary: 'Issue a station token (shown once in the answer)', body: stationContracts.CreateStationInput, response: stationContracts.StationCreated, status: 201 },
@@ -85,7 +86,7 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   },
   '/api/bins/{id}/parts': { get: { summary: 'Parts in one bin with their figures and location', query: binContracts.BinPartsQuery, response: binContracts.BinPartsPage } },
   '/api/bins/export.csv': { get: { summary: 'The bin stock table as CSV (every page)', query: binContracts.BinStockQuery, produces: csv } },
-  '/api/bins/map': { get: { summary: "A device type's bins as a grid over its plan axes", query: z.object({ device_type: z.string() }) } },
+  '/api/bins/map': { get: { summary: "A device type's bins as a grid over its plan axes", query: z.object({ device_type: z.string() }), response: binContracts.BinMapJson } },
   '/api/estimates/mixer': { post: { summary: 'Square-law mixer products for data-sheet IDSS/VP or a stored part', body: MixerRequest, response: estimateContracts.MixerEstimateJson } },
   '/api/estimates/parts/{serial}/mixer': { post: { summary: "The mixer estimate for a stored part's current fit", body: MixerRequest, response: estimateContracts.MixerEstimateJson } },
   '/api/estimates/parts/{serial}/self-bias': { post: { summary: "The self-bias estimate for a stored part's current fit", body: SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
@@ -164,6 +165,7 @@ function contractNames(): Map<z.ZodType, string> {
   const names = new Map<z.ZodType, string>();
   const modules = [
     commonContracts,
+    deviceTypeContracts,
     auditContracts,
     partContracts,
     binPlanContracts,

@@ -1,8 +1,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import type { BinPlan } from '~/core/binning';
+import type { BinMapJson } from '~/contracts/bins';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import type { BinJson } from '~/contracts/bins';
 import { binJson } from './bin-json';
 import { countSql } from './counts';
 import { findDeviceType } from './device-type-ref';
@@ -11,19 +11,10 @@ import { binColumns } from './list';
 /** Statuses drawn on the map: parts that are binned and still ours or out on issue. */
 export const MAP_STATUSES = ['accepted', 'in_stock', 'reserved', 'issued', 'returned'] as const;
 
-export interface BinMapData {
-  device_type: { id: number; name: string; channel: 'n' | 'p'; vds_test_v: number };
-  plan: { id: number; version: number; name: string; definition: BinPlan } | null;
-  bins: BinJson[];
-  points: { serial: string; idss_a: number; vp_v: number; status: string; bin_id: number | null }[];
-  /** Parts left off the scatter when there are more than the limit. */
-  points_left_off: number;
-}
-
 const POINT_LIMIT = 5000;
 
 /** A device type's active plan, its bins with counts and its binned parts' (IDSS, VP) points. */
-export async function getBinMap({ actor, deviceType }: { actor: Actor | null; deviceType: string }): Promise<BinMapData> {
+export async function getBinMap({ actor, deviceType }: { actor: Actor | null; deviceType: string }): Promise<BinMapJson> {
   requirePermission(actor, 'stock:read');
   const db = getDb();
   const type = await findDeviceType(db, deviceType);

@@ -1,11 +1,12 @@
 import { eq } from 'drizzle-orm';
+import type { DeviceTypeJson } from '~/contracts/device-types';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
 
-export async function createDeviceType({ actor, input }: { actor: Actor | null; input: unknown }) {
+export async function createDeviceType({ actor, input }: { actor: Actor | null; input: unknown }): Promise<DeviceTypeJson> {
   requirePermission(actor, 'deviceTypes:manage');
   const data = DeviceTypeInput.parse(input);
   return getDb().transaction(async (tx) => {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { DeviceTypeJson } from '~/contracts/device-types';
 
 const optionalNumber = z.number().finite().nullable().optional();
 
@@ -52,26 +53,11 @@ export function toColumns(v: DeviceTypeInput) {
   };
 }
 
-export interface DeviceTypeRow {
-  id: number;
-  name: string;
-  channel: 'n' | 'p';
-  description: string;
-  vds_test_v: number;
-  nominal_temperature_c: number;
-  vtotc_v_per_c: number;
-  betatce_pct_per_c: number;
-  idss_min_a: number | null;
-  idss_max_a: number | null;
-  vp_min_v: number | null;
-  vp_max_v: number | null;
-}
-
 export function toDeviceTypeRow(r: {
   id: number; name: string; channel: 'n' | 'p'; description: string; vdsTestV: number; nominalTemperatureC: number;
   vtotcVPerC: number; betatcePctPerC: number;
   idssMinA: number | null; idssMaxA: number | null; vpMinV: number | null; vpMaxV: number | null;
-}): DeviceTypeRow {
+}): DeviceTypeJson {
   return {
     id: r.id,
     name: r.name,

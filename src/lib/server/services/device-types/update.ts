@@ -1,5 +1,6 @@
 import { and, count, eq, ne } from 'drizzle-orm';
 import { z } from 'zod';
+import type { DeviceTypeJson } from '~/contracts/device-types';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -10,7 +11,7 @@ import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
  * Edits a device type. The channel cannot change once parts of the type exist: their sweeps
  * were read with it. A new test VDS applies to fits made from then on.
  */
-export async function updateDeviceType({ actor, id, input }: { actor: Actor | null; id: unknown; input: unknown }) {
+export async function updateDeviceType({ actor, id, input }: { actor: Actor | null; id: unknown; input: unknown }): Promise<DeviceTypeJson> {
   requirePermission(actor, 'deviceTypes:manage');
   const typeId = z.coerce.number().int().positive().parse(id);
   const data = DeviceTypeInput.parse(input);
