@@ -1,6 +1,8 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { closeDb } from '~/db/client';
 import { checkHealth } from '~/lib/server/services/health/check-health';
+import { HealthJson } from '~/contracts/session';
+import { expectContract } from '../helpers/contract';
 import { BASE_URL } from '../helpers/http';
 
 /** GET /api/health, which the start and test scripts poll, and the service behind it. */
@@ -14,7 +16,7 @@ describe('health', () => {
     const res = await fetch(`${BASE_URL}/api/health`);
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toMatch(/^application\/json/);
-    expect(await res.json()).toEqual({ ok: true });
+    expect(expectContract(HealthJson, await res.json())).toEqual({ ok: true });
   });
 
   it('reports a database that does not answer instead of throwing', async () => {

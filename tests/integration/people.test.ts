@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import pg from 'pg';
 import { anonymous, signIn, BASE_URL } from '../helpers/http';
 import { waitForMail } from '../helpers/mail';
+import { MeJson } from '~/contracts/session';
 import { UserList } from '~/contracts/users';
 import { expectContract } from '../helpers/contract';
 
@@ -29,6 +30,7 @@ describe('invitations', () => {
 
     const invited = await signIn(email, 'a-long-new-password');
     const me = await (await invited.fetch('/api/me')).json();
+    expectContract(MeJson, me);
     expect(me.roles.sort()).toEqual(['inspector', 'stores']);
 
     const list = await (await admin.fetch('/api/admin/users')).json();

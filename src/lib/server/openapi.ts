@@ -12,6 +12,7 @@ import * as partContracts from '~/contracts/parts';
 import * as pickListContracts from '~/contracts/pick-lists';
 import * as reservationContracts from '~/contracts/reservations';
 import * as reviewContracts from '~/contracts/review';
+import * as sessionContracts from '~/contracts/session';
 import * as stationContracts from '~/contracts/stations';
 import * as statisticsContracts from '~/contracts/statistics';
 import * as stockContracts from '~/contracts/stock';
@@ -92,7 +93,7 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/estimates/parts/{serial}/self-bias': { post: { summary: "The self-bias estimate for a stored part's current fit", body: SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
   '/api/estimates/self-bias': { post: { summary: 'Source resistor for a drain current and/or the current a resistor sets', body: SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
   '/api/estimates/set': { post: { summary: "Every part of a reservation's sets (or a serial list) at one operating point", body: SetRequest, response: estimateContracts.MatchedSetEstimateJson } },
-  '/api/health': { get: { summary: 'Whether the server and its database answer ({ ok })', public: true } },
+  '/api/health': { get: { summary: 'Whether the server and its database answer', public: true, response: sessionContracts.HealthJson } },
   '/api/labels/barcode': { get: { summary: 'A barcode rendered on the server (?text=&symbology=&format=svg|png)', produces: 'image/svg+xml' } },
   '/api/locations': {
     get: { summary: 'Storage locations', response: locationContracts.LocationList },
@@ -112,7 +113,7 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/match/proposals/{id}/confirm': { post: { summary: "Reserve every part of the proposal, or 409 naming the parts already taken", body: matchContracts.ConfirmRequest, response: pickListContracts.ReservationConfirmed, status: 201 } },
   '/api/match/proposals/{id}/sets/{set}/figures.csv': { get: { summary: "One proposed set's figures as CSV (sets numbered from 1)", produces: csv } },
   '/api/match/proposals/{id}/sets/{set}/model-cards': { get: { summary: 'SPICE .model cards of one proposed set', produces: 'text/plain' } },
-  '/api/me': { get: { summary: 'The signed-in person (id, e-mail, roles, permissions) or the station' } },
+  '/api/me': { get: { summary: 'The signed-in person (id, e-mail, roles, permissions) or the station', response: sessionContracts.MeJson } },
   '/api/openapi.json': { get: { summary: 'This document (OpenAPI 3.1)', public: true } },
   '/api/parts': { get: { summary: 'Parts with their current figures, filtered and paged, by serial', query: partContracts.ListPartsQuery, response: partContracts.PartsPage } },
   '/api/parts/{serial}': { get: { summary: 'A part with its current fit, test conditions, sweeps, model card and audit trail', response: partContracts.PartDetailJson } },
@@ -182,6 +183,7 @@ function contractNames(): Map<z.ZodType, string> {
     lotContracts,
     reviewContracts,
     uploadContracts,
+    sessionContracts,
   ];
   for (const mod of modules) {
     for (const [name, value] of Object.entries(mod)) if (value instanceof z.ZodType && !names.has(value)) names.set(value, name);

@@ -1,7 +1,9 @@
 import type { APIRoute } from 'astro';
+import type { MeJson } from '~/contracts/session';
 import { json } from '~/lib/server/errors';
 
 export const GET: APIRoute = ({ locals }) => {
   const u = locals.user;
-  return json(u ? { id: u.id, email: u.email, name: u.name, roles: u.roles, permissions: u.permissions } : { station: locals.station });
+  const me: MeJson = u ? { id: u.id, email: u.email, name: u.name, roles: u.roles, permissions: u.permissions } : { station: locals.station };
+  return json(me);
 };
