@@ -1,12 +1,9 @@
 import { drainCurrentA } from '~/core/fit/series-resistance';
 import type { JfetParams } from '~/core/jfet-model';
+import type { StoredCurveJson } from '~/contracts/parts';
 
-/** A curve as the API sends it (N-equivalent SI). */
-export interface ApiCurve {
-  vgs_v: number;
-  vds_v: number[];
-  id_a: number[];
-}
+/** A curve as the API sends it (N-equivalent SI): what the charts read of a stored curve. */
+export type ApiCurve = Pick<StoredCurveJson, 'vgs_v' | 'vds_v' | 'id_a'>;
 
 export interface MeasuredPoint {
   curve: number;
