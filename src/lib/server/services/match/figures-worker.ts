@@ -12,7 +12,7 @@ import { storableErrorMessage } from '~/core/text/storable-text';
 import { unpackBases } from './packed-bases';
 
 export type FiguresWorkerMessage =
-  | { type: 'stock'; key: number; tables: Float64Array; bases: Float64Array; count: number }
+  | { type: 'stock'; key: number; deviceTypeId: number; tables: Float64Array; bases: Float64Array; count: number }
   | {
       type: 'evaluate';
       id: number;
@@ -27,19 +27,23 @@ export type FiguresWorkerMessage =
 
 export type FiguresWorkerReply = { type: 'ready' } | { type: 'done'; id: number } | { type: 'failed'; id: number; message: string };
 
-// The stocks this thread holds: the latest few builds (older ones are no longer asked for).
-const stocks = new Map<number, PartBasis[]>();
-const KEEP_STOCKS = 4;
+// The stocks this thread holds: the latest build of each type, so an older build's tables
+// (shared memory, ~100 MB for 100 000 parts) are freed once the main thread drops them too.
+const stocks = new Map<number, { key: number; parts: PartBasis[] }>();
+const typeOfKey = new Map<number, number>();
 
 const port = parentPort!;
 port.on('message', (msg: FiguresWorkerMessage) => {
   if (msg.type === 'stock') {
-    stocks.set(msg.key, unpackBases(msg.bases, msg.tables, msg.count));
-    while (stocks.size > KEEP_STOCKS) stocks.delete(stocks.keys().next().value!);
+    const old = stocks.get(msg.deviceTypeId);
+    if (old) typeOfKey.delete(old.key);
+    stocks.set(msg.deviceTypeId, { key: msg.key, parts: unpackBases(msg.bases, msg.tables, msg.count) });
+    typeOfKey.set(msg.key, msg.deviceTypeId);
     return;
   }
   try {
-    const parts = stocks.get(msg.key);
+    const type = typeOfKey.get(msg.key);
+    const parts = type === undefined ? undefined : stocks.get(type)?.parts;
     if (!parts) throw new AppError('match_thread_stock_missing', { key: msg.key });
     evaluateRange(parts, msg.op, msg.compareAtC, msg.figures, msg.unusable, msg.from, msg.to);
     port.postMessage({ type: 'done', id: msg.id } satisfies FiguresWorkerReply);

@@ -35,7 +35,8 @@ import('tsx/esm/api').then(({ register }) => { register(); return import(workerD
 interface Helper {
   worker: Worker;
   ready: boolean;
-  stockKeys: Set<number>;
+  /** The build of each type this thread holds (it keeps one per type). */
+  stockOfType: Map<number, number>;
   pending: Map<number, { resolve: () => void; reject: (err: Error) => void }>;
 }
 
@@ -58,7 +59,7 @@ function failHelper(h: Helper, err: Error): void {
 function startHelper(entry: string): Helper {
   const worker = new Worker(BOOT, { eval: true, workerData: { entry: pathToFileURL(entry).href } });
   worker.unref();
-  const h: Helper = { worker, ready: false, stockKeys: new Set(), pending: new Map() };
+  const h: Helper = { worker, ready: false, stockOfType: new Map(), pending: new Map() };
   const startTimer = setTimeout(() => failHelper(h, new Error('it did not start within a minute')), START_TIMEOUT_MS);
   startTimer.unref();
   worker.on('message', (m: FiguresWorkerReply) => {
@@ -149,9 +150,16 @@ async function evaluateInSlices(stock: TypeStock, op: OperatingPoint, compareAtC
   const out = sharedArrays(n);
   const size = Math.ceil(n / (ready.length + 1));
   const replies = ready.map((h, k) => {
-    if (!h.stockKeys.has(stock.key)) {
-      h.worker.postMessage({ type: 'stock', key: stock.key, tables: stock.shared.tables, bases: stock.shared.bases, count: n } satisfies FiguresWorkerMessage);
-      h.stockKeys.add(stock.key);
+    if (h.stockOfType.get(stock.deviceTypeId) !== stock.key) {
+      h.worker.postMessage({
+        type: 'stock',
+        key: stock.key,
+        deviceTypeId: stock.deviceTypeId,
+        tables: stock.shared.tables,
+        bases: stock.shared.bases,
+        count: n,
+      } satisfies FiguresWorkerMessage);
+      h.stockOfType.set(stock.deviceTypeId, stock.key);
     }
     const from = Math.min(n, (k + 1) * size);
     return ask(h, { type: 'evaluate', id: ++nextId, key: stock.key, op, compareAtC, from, to: Math.min(n, from + size), ...out });
