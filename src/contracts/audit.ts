@@ -37,3 +37,22 @@ export const AuditLogPage = z.object({
   actions: z.array(z.string()),
 });
 export type AuditLogPage = z.infer<typeof AuditLogPage>;
+
+const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+const day = z.preprocess(blankToUndefined, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional());
+
+/** The query of `GET /api/admin/audit` (blank fields count as absent). */
+export const AuditLogQuery = z.object({
+  /** Part of a serial (or of any subject id), case-insensitive. */
+  serial: z.preprocess(blankToUndefined, z.string().trim().max(80).optional()),
+  /** Part of a person's e-mail or name, or of a station's name, case-insensitive. */
+  person: z.preprocess(blankToUndefined, z.string().trim().max(120).optional()),
+  /** An action ("stock.move") or its first part ("stock"). */
+  action: z.preprocess(blankToUndefined, z.string().trim().max(60).regex(/^[a-z_.]+$/, 'must be an action name such as stock.move').optional()),
+  /** First and last day, inclusive, in UTC. */
+  from: day,
+  to: day,
+  page: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(1)),
+  page_size: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(200).default(50)),
+});
+export type AuditLogQuery = z.infer<typeof AuditLogQuery>;

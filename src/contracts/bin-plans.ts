@@ -35,6 +35,10 @@ export type BinPlanJson = z.infer<typeof BinPlanJson>;
 export const BinPlanDeviceType = z.object({ id: z.number().int(), name: z.string(), channel: Channel, vds_test_v: z.number() });
 export type BinPlanDeviceType = z.infer<typeof BinPlanDeviceType>;
 
+/** The query of `GET /api/bin-plans`: one device type's plans (name or id); every type's without it. */
+export const BinPlanListQuery = z.object({ device_type: z.string().optional() });
+export type BinPlanListQuery = z.infer<typeof BinPlanListQuery>;
+
 /** `GET /api/bin-plans`: every version of every plan (or of one type), newest first within each type. */
 export const BinPlanList = z.object({
   plans: z.array(BinPlanJson),

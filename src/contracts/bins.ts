@@ -108,6 +108,10 @@ export const BinPartsPage = z.object({
 });
 export type BinPartsPage = z.infer<typeof BinPartsPage>;
 
+/** The query of `GET /api/bins/map`: the device type's name or id. */
+export const BinMapQuery = z.object({ device_type: z.string().min(1) });
+export type BinMapQuery = z.infer<typeof BinMapQuery>;
+
 /** `GET /api/bins/map`: a device type's active plan, its bins with counts and its binned parts' (IDSS, VP) points. */
 export const BinMapJson = z.object({
   device_type: BinPlanDeviceType,

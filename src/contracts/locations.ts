@@ -29,3 +29,28 @@ export type LocationRecord = z.infer<typeof LocationRecord>;
 /** `DELETE /api/locations/{id}`. */
 export const LocationDeleted = z.object({ deleted: z.number().int() });
 export type LocationDeleted = z.infer<typeof LocationDeleted>;
+
+const barcode = z
+  .string()
+  .trim()
+  .min(1, 'must not be empty')
+  .max(64)
+  .regex(/^[A-Za-z0-9._\-/]+$/, 'use letters, digits and . _ - / only, so every scanner types it the same');
+
+/** The body of `POST /api/locations`. */
+export const LocationInput = z.object({
+  name: z.string().trim().min(1, 'must not be empty').max(120),
+  barcode: barcode.optional(),
+  description: z.string().trim().max(500).default(''),
+});
+export type LocationInput = z.infer<typeof LocationInput>;
+
+/** The body of `PUT /api/locations/{id}`: the fields to change. */
+export const LocationPatch = z
+  .object({
+    name: z.string().trim().min(1, 'must not be empty').max(120).optional(),
+    barcode: barcode.optional(),
+    description: z.string().trim().max(500).optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'give at least one of name, barcode, description');
+export type LocationPatch = z.infer<typeof LocationPatch>;

@@ -73,3 +73,27 @@ export type RefitResult = z.infer<typeof RefitResult>;
 /** `POST /api/review/{serial}/retest`: the part is to be measured again. */
 export const RetestResult = z.object({ serial: z.string(), status: z.literal('retest'), fit_id: z.number().int() });
 export type RetestResult = z.infer<typeof RetestResult>;
+
+/** The body of `POST /api/review/{serial}/accept` and `…/retest`. */
+export const FitDecisionRequest = z.object({
+  /** The fit the reviewer looked at; refused when a newer fit has replaced it. */
+  fit_id: z.number().int().positive().optional(),
+  note: z.string().trim().max(1000).optional(),
+});
+export type FitDecisionRequest = z.infer<typeof FitDecisionRequest>;
+
+/** What the accept and retest services take: the body with the part's serial from the path. */
+export const ReviewTarget = z.object({ serial: z.string().min(1), ...FitDecisionRequest.shape });
+export type ReviewTarget = z.infer<typeof ReviewTarget>;
+
+/** The body of `POST /api/review/{serial}/refit`. */
+export const RefitRequest = z.object({
+  ...FitDecisionRequest.shape,
+  /** Points to leave out, as [curve index, point index] of the current sweep. */
+  excluded_points: z.array(z.tuple([z.number().int().min(0), z.number().int().min(0)])).max(100_000),
+});
+export type RefitRequest = z.infer<typeof RefitRequest>;
+
+/** What the refit service takes: the body with the part's serial from the path. */
+export const RefitInput = z.object({ serial: z.string().min(1), ...RefitRequest.shape });
+export type RefitInput = z.infer<typeof RefitInput>;

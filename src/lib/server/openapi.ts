@@ -5,6 +5,7 @@ import * as binContracts from '~/contracts/bins';
 import * as commonContracts from '~/contracts/common';
 import * as deviceTypeContracts from '~/contracts/device-types';
 import * as estimateContracts from '~/contracts/estimates';
+import * as labelContracts from '~/contracts/labels';
 import * as locationContracts from '~/contracts/locations';
 import * as lotContracts from '~/contracts/lots';
 import * as matchContracts from '~/contracts/match';
@@ -18,18 +19,12 @@ import * as statisticsContracts from '~/contracts/statistics';
 import * as stockContracts from '~/contracts/stock';
 import * as uploadContracts from '~/contracts/uploads';
 import * as userContracts from '~/contracts/users';
-import { DeviceTypeInput } from './services/device-types/schemas';
-import { MixerRequest, SelfBiasRequest, SetRequest } from './services/estimates/schemas';
-import { LocationInput, LocationPatch } from './services/locations/schemas';
-import { RefitInput, ReviewTarget } from './services/review/schemas';
-import { StatisticsExportQuery, StatisticsQuery } from './services/statistics/schemas';
-import { MoveInput, ReceiveInput, ReturnInput, ScrapInput, StockCountInput } from './services/stock/schemas';
-import { InviteUserInput, SetDisabledInput, SetRolesInput } from './services/users/schemas';
 
 /**
  * The OpenAPI 3.1 description of `/api/**`, generated from the zod contracts in src/contracts
- * (responses) and the services' request schemas (bodies, queries). `GET /api/openapi.json`
- * serves it; `tests/unit/openapi.test.ts` checks that every route file and method is in it.
+ * (responses, request bodies and queries). `GET /api/openapi.json` serves it;
+ * `tests/unit/openapi.test.ts` checks that every route file and method is in it and that every
+ * JSON body and query is described by a contract.
  */
 
 export type ApiMethod = 'get' | 'post' | 'put' | 'delete';
@@ -38,9 +33,12 @@ export interface ApiOperation {
   summary: string;
   /** Answered without signing in. */
   public?: boolean;
-  /** A z.object whose keys are the query parameters. */
-  query?: z.ZodObject;
+  /** Contracts whose keys are the query parameters (several when a route reads more than one). */
+  query?: z.ZodObject | z.ZodObject[];
+  /** The JSON request body's contract. */
   body?: z.ZodType;
+  /** A multipart/form-data body: the contract of its text fields, besides the `file` parts. */
+  form?: z.ZodObject;
   /** The JSON answer on success; absent for routes without a contract yet (a generic object). */
   response?: z.ZodType;
   /** Success status, 200 unless said. */
@@ -53,12 +51,12 @@ const csv = 'text/csv';
 
 /** Every API route (OpenAPI path form, `{param}` for `[param]`) and what each method takes and gives. */
 export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperation>>> = {
-  '/api/admin/audit': { get: { summary: 'The audit log, newest first, filtered and paged', response: auditContracts.AuditLogPage } },
+  '/api/admin/audit': { get: { summary: 'The audit log, newest first, filtered and paged', query: auditContracts.AuditLogQuery, response: auditContracts.AuditLogPage } },
   '/api/admin/device-types': {
     get: { summary: 'Device types with their test conditions and specification limits', response: deviceTypeContracts.DeviceTypeList },
-    post: { summary: 'Create a device type', body: DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson, status: 201 },
+    post: { summary: 'Create a device type', body: deviceTypeContracts.DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson, status: 201 },
   },
-  '/api/admin/device-types/{id}': { put: { summary: 'Change a device type', body: DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson } },
+  '/api/admin/device-types/{id}': { put: { summary: 'Change a device type', body: deviceTypeContracts.DeviceTypeInput, response: deviceTypeContracts.DeviceTypeJson } },
   '/api/admin/stations': {
     get: { summary: 'Test-station tokens (names and dates, never the token)', response: stationContracts.StationList },
     post: { summary: 'Issue a station token (shown once in the answer)', body: stationContracts.CreateStationInput, response: stationContracts.StationCreated, status: 201 },
@@ -66,16 +64,16 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/admin/stations/{id}': { delete: { summary: "Revoke a station's token", response: stationContracts.StationRevoked } },
   '/api/admin/users': {
     get: { summary: 'People with their roles', response: userContracts.UserList },
-    post: { summary: 'Invite a person by e-mail with roles', body: InviteUserInput, response: userContracts.UserInvited, status: 201 },
+    post: { summary: 'Invite a person by e-mail with roles', body: userContracts.InviteUserInput, response: userContracts.UserInvited, status: 201 },
   },
-  '/api/admin/users/{id}/disabled': { put: { summary: 'Disable or enable a person', body: SetDisabledInput.omit({ userId: true }), response: userContracts.UserDisabledSet } },
-  '/api/admin/users/{id}/roles': { put: { summary: "Set a person's roles", body: SetRolesInput.omit({ userId: true }), response: userContracts.UserRolesSet } },
+  '/api/admin/users/{id}/disabled': { put: { summary: 'Disable or enable a person', body: userContracts.SetDisabledRequest, response: userContracts.UserDisabledSet } },
+  '/api/admin/users/{id}/roles': { put: { summary: "Set a person's roles", body: userContracts.SetRolesRequest, response: userContracts.UserRolesSet } },
   '/api/auth/{all}': {
     get: { summary: 'Sign-in, sessions and password reset (better-auth routes under /api/auth/)' },
     post: { summary: 'Sign-in, sign-out and password reset (better-auth routes under /api/auth/)' },
   },
   '/api/bin-plans': {
-    get: { summary: 'Every version of every bin plan, newest first within each type', query: z.object({ device_type: z.string().optional() }), response: binPlanContracts.BinPlanList },
+    get: { summary: 'Every version of every bin plan, newest first within each type', query: binPlanContracts.BinPlanListQuery, response: binPlanContracts.BinPlanList },
     post: { summary: "Save a plan as the type's next version and activate it (re-binning moved parts)", body: binPlanContracts.BinPlanDraft, response: binPlanContracts.BinPlanActivated, status: 201 },
   },
   '/api/bin-plans/{id}': { get: { summary: 'One bin plan version with its bins', response: binPlanContracts.BinPlanDetail } },
@@ -87,20 +85,20 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   },
   '/api/bins/{id}/parts': { get: { summary: 'Parts in one bin with their figures and location', query: binContracts.BinPartsQuery, response: binContracts.BinPartsPage } },
   '/api/bins/export.csv': { get: { summary: 'The bin stock table as CSV (every page)', query: binContracts.BinStockQuery, produces: csv } },
-  '/api/bins/map': { get: { summary: "A device type's bins as a grid over its plan axes", query: z.object({ device_type: z.string() }), response: binContracts.BinMapJson } },
-  '/api/estimates/mixer': { post: { summary: 'Square-law mixer products for data-sheet IDSS/VP or a stored part', body: MixerRequest, response: estimateContracts.MixerEstimateJson } },
-  '/api/estimates/parts/{serial}/mixer': { post: { summary: "The mixer estimate for a stored part's current fit", body: MixerRequest, response: estimateContracts.MixerEstimateJson } },
-  '/api/estimates/parts/{serial}/self-bias': { post: { summary: "The self-bias estimate for a stored part's current fit", body: SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
-  '/api/estimates/self-bias': { post: { summary: 'Source resistor for a drain current and/or the current a resistor sets', body: SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
-  '/api/estimates/set': { post: { summary: "Every part of a reservation's sets (or a serial list) at one operating point", body: SetRequest, response: estimateContracts.MatchedSetEstimateJson } },
+  '/api/bins/map': { get: { summary: "A device type's bins as a grid over its plan axes", query: binContracts.BinMapQuery, response: binContracts.BinMapJson } },
+  '/api/estimates/mixer': { post: { summary: 'Square-law mixer products for data-sheet IDSS/VP or a stored part', body: estimateContracts.MixerRequest, response: estimateContracts.MixerEstimateJson } },
+  '/api/estimates/parts/{serial}/mixer': { post: { summary: "The mixer estimate for a stored part's current fit", body: estimateContracts.MixerRequest, response: estimateContracts.MixerEstimateJson } },
+  '/api/estimates/parts/{serial}/self-bias': { post: { summary: "The self-bias estimate for a stored part's current fit", body: estimateContracts.SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
+  '/api/estimates/self-bias': { post: { summary: 'Source resistor for a drain current and/or the current a resistor sets', body: estimateContracts.SelfBiasRequest, response: estimateContracts.SelfBiasEstimateJson } },
+  '/api/estimates/set': { post: { summary: "Every part of a reservation's sets (or a serial list) at one operating point", body: estimateContracts.SetRequest, response: estimateContracts.MatchedSetEstimateJson } },
   '/api/health': { get: { summary: 'Whether the server and its database answer', public: true, response: sessionContracts.HealthJson } },
-  '/api/labels/barcode': { get: { summary: 'A barcode rendered on the server (?text=&symbology=&format=svg|png)', produces: 'image/svg+xml' } },
+  '/api/labels/barcode': { get: { summary: 'A barcode rendered on the server (SVG, or PNG with format=png)', query: labelContracts.BarcodeQuery, produces: 'image/svg+xml' } },
   '/api/locations': {
     get: { summary: 'Storage locations', response: locationContracts.LocationList },
-    post: { summary: 'Create a location', body: LocationInput, response: locationContracts.LocationRecord, status: 201 },
+    post: { summary: 'Create a location', body: locationContracts.LocationInput, response: locationContracts.LocationRecord, status: 201 },
   },
   '/api/locations/{id}': {
-    put: { summary: 'Change a location', body: LocationPatch, response: locationContracts.LocationRecord },
+    put: { summary: 'Change a location', body: locationContracts.LocationPatch, response: locationContracts.LocationRecord },
     delete: { summary: 'Delete an empty location', response: locationContracts.LocationDeleted },
   },
   '/api/lots': {
@@ -129,21 +127,21 @@ export const API_OPERATIONS: Record<string, Partial<Record<ApiMethod, ApiOperati
   '/api/reservations/{id}/sets/{set}/figures.csv': { get: { summary: "One reserved set's figures as CSV (sets numbered from 1)", produces: csv } },
   '/api/reservations/{id}/sets/{set}/model-cards': { get: { summary: 'SPICE .model cards of one reserved set', produces: 'text/plain' } },
   '/api/review': { get: { summary: 'The review queue (fits waiting for a decision)', query: reviewContracts.ReviewQueueQuery, response: reviewContracts.ReviewQueue } },
-  '/api/review/{serial}/accept': { post: { summary: "Accept a part's current fit", body: ReviewTarget.omit({ serial: true }), response: reviewContracts.FitAccepted } },
-  '/api/review/{serial}/refit': { post: { summary: 'Fit again with points left out', body: RefitInput.omit({ serial: true }), response: reviewContracts.RefitResult } },
-  '/api/review/{serial}/retest': { post: { summary: 'Mark a part for retest', body: ReviewTarget.omit({ serial: true }), response: reviewContracts.RetestResult } },
+  '/api/review/{serial}/accept': { post: { summary: "Accept a part's current fit", body: reviewContracts.FitDecisionRequest, response: reviewContracts.FitAccepted } },
+  '/api/review/{serial}/refit': { post: { summary: 'Fit again with points left out', body: reviewContracts.RefitRequest, response: reviewContracts.RefitResult } },
+  '/api/review/{serial}/retest': { post: { summary: 'Mark a part for retest', body: reviewContracts.FitDecisionRequest, response: reviewContracts.RetestResult } },
   '/api/review/accept': { post: { summary: "Accept several parts' fits in one transaction", body: reviewContracts.AcceptFitsRequest, response: reviewContracts.FitsAccepted } },
-  '/api/statistics': { get: { summary: 'Statistics of a lot, a device type and/or a date range, one group per type', query: StatisticsQuery, response: statisticsContracts.StatisticsReport } },
-  '/api/statistics/export': { get: { summary: 'One table of the statistics report as CSV', query: StatisticsExportQuery, produces: csv } },
+  '/api/statistics': { get: { summary: 'Statistics of a lot, a device type and/or a date range, one group per type', query: statisticsContracts.StatisticsQuery, response: statisticsContracts.StatisticsReport } },
+  '/api/statistics/export': { get: { summary: 'One table of the statistics report as CSV', query: [statisticsContracts.StatisticsExportQuery, statisticsContracts.StatisticsQuery], produces: csv } },
   '/api/statistics/options': { get: { summary: 'Device types and lots to choose from', response: statisticsContracts.StatisticsOptions } },
   '/api/stock/awaiting': { get: { summary: 'Lots with accepted parts waiting to be received into stock', response: stockContracts.AwaitingLotList } },
   '/api/stock/lookup': { get: { summary: 'What a scanned part is and what stores may do with it', query: stockContracts.StockLookupQuery, response: stockContracts.PartLookup } },
-  '/api/stock/move': { post: { summary: 'Move a batch of parts to a location (one transaction)', body: MoveInput, response: stockContracts.StockActionResult } },
-  '/api/stock/receive': { post: { summary: 'Receive a batch of parts into stock (one transaction)', body: ReceiveInput, response: stockContracts.StockActionResult } },
-  '/api/stock/return': { post: { summary: 'Return a batch of issued parts (one transaction)', body: ReturnInput, response: stockContracts.StockActionResult } },
-  '/api/stock/scrap': { post: { summary: 'Scrap a batch of parts (one transaction)', body: ScrapInput, response: stockContracts.StockActionResult } },
-  '/api/stores/count': { post: { summary: "Compare a location's scanned parts with the records; apply: true corrects them", body: StockCountInput, response: stockContracts.StockCountJson } },
-  '/api/sweeps': { post: { summary: 'Upload sweep files (multipart: `file` fields, tags lot/device_type/…); answers 202 at once', response: uploadContracts.UploadReceived, status: 202 } },
+  '/api/stock/move': { post: { summary: 'Move a batch of parts to a location (one transaction)', body: stockContracts.MoveInput, response: stockContracts.StockActionResult } },
+  '/api/stock/receive': { post: { summary: 'Receive a batch of parts into stock (one transaction)', body: stockContracts.ReceiveInput, response: stockContracts.StockActionResult } },
+  '/api/stock/return': { post: { summary: 'Return a batch of issued parts (one transaction)', body: stockContracts.ReturnInput, response: stockContracts.StockActionResult } },
+  '/api/stock/scrap': { post: { summary: 'Scrap a batch of parts (one transaction)', body: stockContracts.ScrapInput, response: stockContracts.StockActionResult } },
+  '/api/stores/count': { post: { summary: "Compare a location's scanned parts with the records; apply: true corrects them", body: stockContracts.StockCountInput, response: stockContracts.StockCountJson } },
+  '/api/sweeps': { post: { summary: 'Upload sweep files (multipart: `file` fields, tags lot/device_type/…); answers 202 at once', form: uploadContracts.UploadTags, response: uploadContracts.UploadReceived, status: 202 } },
   '/api/uploads/{id}': { get: { summary: 'An upload and the state of each of its files', response: uploadContracts.UploadStatus } },
   '/api/uploads/{id}/summary': { get: { summary: 'The upload per lot: fitted, flagged, refused by reason', response: uploadContracts.UploadSummaryJson } },
   '/api/uploads/{id}/summary-mail': { post: { summary: "Mail one lot's summary of this upload", body: uploadContracts.LotSummaryMailRequest, response: uploadContracts.LotSummaryMailed } },
@@ -172,6 +170,7 @@ function contractNames(): Map<z.ZodType, string> {
     binPlanContracts,
     binContracts,
     estimateContracts,
+    labelContracts,
     matchContracts,
     statisticsContracts,
     reservationContracts,
@@ -205,6 +204,11 @@ const ERROR_SCHEMA: JsonSchema = {
   required: ['error'],
 };
 
+/** A multipart body: the text fields' contract and any number of `file` parts. */
+function formSchema(fields: JsonSchema): JsonSchema {
+  return { allOf: [fields, { type: 'object', properties: { file: { type: 'array', items: { type: 'string', contentMediaType: 'application/octet-stream' } } }, required: ['file'] }] };
+}
+
 const GENERIC_OBJECT: JsonSchema = { type: 'object', description: 'A JSON object; this route has no published contract yet.', additionalProperties: true };
 
 /** The OpenAPI 3.1 document for every route in `API_OPERATIONS`. */
@@ -223,14 +227,14 @@ export function buildOpenApiDocument(): Record<string, unknown> {
     const pathParams = [...path.matchAll(/\{([^}]+)\}/g)].map((m) => ({ name: m[1], in: 'path', required: true, schema: { type: 'string' } }));
     const item: Record<string, unknown> = {};
     for (const [method, op] of Object.entries(methods) as [ApiMethod, ApiOperation][]) {
-      const queryParams = op.query
-        ? Object.entries(op.query.shape).map(([name, field]) => ({
-            name,
-            in: 'query',
-            required: !(field as z.ZodType).safeParse(undefined).success,
-            schema: jsonSchema(field as z.ZodType, 'input'),
-          }))
-        : [];
+      const queryParams = [op.query ?? []].flat().flatMap((query) =>
+        Object.entries(query.shape).map(([name, field]) => ({
+          name,
+          in: 'query',
+          required: !(field as z.ZodType).safeParse(undefined).success,
+          schema: jsonSchema(field as z.ZodType, 'input'),
+        })),
+      );
       const parameters = [...pathParams, ...queryParams];
       const status = String(op.status ?? 200);
       const content = op.produces
@@ -242,6 +246,7 @@ export function buildOpenApiDocument(): Record<string, unknown> {
         operationId: `${method}${path.replace(/[^A-Za-z0-9]+(.)?/g, (_m, c: string | undefined) => (c ? c.toUpperCase() : ''))}`,
         ...(parameters.length ? { parameters } : {}),
         ...(op.body ? { requestBody: { required: true, content: { 'application/json': { schema: ref(op.body, 'input') } } } } : {}),
+        ...(op.form ? { requestBody: { required: true, content: { 'multipart/form-data': { schema: formSchema(ref(op.form, 'input')) } } } } : {}),
         responses: {
           [status]: { description: 'Success', content },
           default: { description: 'An error', content: { 'application/json': { schema: { $ref: '#/components/schemas/ApiError' } } } },

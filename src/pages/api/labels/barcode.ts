@@ -1,6 +1,7 @@
 import { endpoint } from '~/lib/server/http';
 import { requirePermission } from '~/lib/server/identity';
-import { barcodePng, barcodeSvg, BarcodeQuery } from '~/lib/server/services/labels/barcode';
+import { BarcodeQuery } from '~/contracts/labels';
+import { barcodePng, barcodeSvg } from '~/lib/server/services/labels/barcode';
 import { searchParamsObject } from '~/lib/server/services/bins/schemas';
 
 /** ?text=&symbology=code128|datamatrix&format=svg|png — a barcode rendered on the server. */

@@ -1,6 +1,6 @@
 import { endpoint } from '~/lib/server/http';
 import { exportStatisticsCsv } from '~/lib/server/services/statistics/export-csv';
-import { queryObject } from '~/lib/server/services/statistics/schemas';
+import { queryObject } from '~/lib/server/services/statistics/query-object';
 
 /** GET /api/statistics/export?table=summary|histograms|scatter|yield|bins|trend&(the selection) → text/csv */
 export const GET = endpoint(async ({ url }, actor) => {

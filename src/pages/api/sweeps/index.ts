@@ -1,7 +1,8 @@
 import { AppError } from '~/lib/server/errors';
 import { capRequestBody, endpoint, json } from '~/lib/server/http';
 import { receiveSweepUpload, type IncomingFile } from '~/lib/server/services/uploads/receive';
-import { MAX_UPLOAD_REQUEST_BYTES, UPLOAD_TAG_FIELDS } from '~/lib/server/services/uploads/schemas';
+import { UPLOAD_TAG_FIELDS } from '~/contracts/uploads';
+import { MAX_UPLOAD_REQUEST_BYTES } from '~/lib/server/services/uploads/limits';
 
 /** Multipart upload of sweep files (fields `file`, tags lot/device_type/...). Answers 202 at once. */
 export const POST = endpoint(async ({ request }, actor) => {

@@ -1,29 +1,9 @@
 import { and, count, desc, eq, gte, ilike, inArray, lt, or, type SQL } from 'drizzle-orm';
-import { z } from 'zod';
 import { AUDIT_ACTION_WORDS } from '~/core/audit/describe-audit-entry';
 import { getDb, schema } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import type { AuditLogPage } from '~/contracts/audit';
+import { AuditLogQuery, type AuditLogPage } from '~/contracts/audit';
 import { describeAuditRows } from './describe-rows';
-
-const blankToUndefined = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
-const day = z.preprocess(blankToUndefined, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written YYYY-MM-DD').optional());
-
-export const ListAuditInput = z.object({
-  /** Part of a serial (or of any subject id), case-insensitive. */
-  serial: z.preprocess(blankToUndefined, z.string().trim().max(80).optional()),
-  /** Part of a person's e-mail or name, or of a station's name, case-insensitive. */
-  person: z.preprocess(blankToUndefined, z.string().trim().max(120).optional()),
-  /** An action ("stock.move") or its first part ("stock"). */
-  action: z.preprocess(blankToUndefined, z.string().trim().max(60).regex(/^[a-z_.]+$/, 'must be an action name such as stock.move').optional()),
-  /** First and last day, inclusive, in UTC. */
-  from: day,
-  to: day,
-  page: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).default(1)),
-  page_size: z.preprocess(blankToUndefined, z.coerce.number().int().min(1).max(200).default(50)),
-});
-export type ListAuditInput = z.infer<typeof ListAuditInput>;
-
 
 const ACTIONS = Object.keys(AUDIT_ACTION_WORDS).sort();
 
@@ -32,7 +12,7 @@ const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 /** The whole audit log, newest first, filtered and paged on the server. */
 export async function listAuditLog({ actor, input }: { actor: Actor | null; input: unknown }): Promise<AuditLogPage> {
   requirePermission(actor, 'audit:read');
-  const f = ListAuditInput.parse(input);
+  const f = AuditLogQuery.parse(input);
   const db = getDb();
   const where: SQL[] = [];
   if (f.serial) where.push(ilike(schema.auditLog.subjectId, `%${escapeLike(f.serial)}%`));

@@ -1,10 +1,10 @@
 import { eq } from 'drizzle-orm';
-import type { DeviceTypeJson } from '~/contracts/device-types';
+import { DeviceTypeInput, type DeviceTypeJson } from '~/contracts/device-types';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
+import { toColumns, toDeviceTypeRow } from './columns';
 
 export async function createDeviceType({ actor, input }: { actor: Actor | null; input: unknown }): Promise<DeviceTypeJson> {
   requirePermission(actor, 'deviceTypes:manage');

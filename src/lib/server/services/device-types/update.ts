@@ -1,11 +1,11 @@
 import { and, count, eq, ne } from 'drizzle-orm';
 import { z } from 'zod';
-import type { DeviceTypeJson } from '~/contracts/device-types';
+import { DeviceTypeInput, type DeviceTypeJson } from '~/contracts/device-types';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { DeviceTypeInput, toColumns, toDeviceTypeRow } from './schemas';
+import { toColumns, toDeviceTypeRow } from './columns';
 
 /**
  * Edits a device type. The channel cannot change once parts of the type exist: their sweeps

@@ -1,11 +1,10 @@
 import { estimateMixer, paramsFromIdssVp, solveSelfBias, type MixerEstimateInput } from '~/core/estimates';
-import type { MixerEstimateJson } from '~/contracts/estimates';
+import { MixerRequest, type MixerEstimateJson } from '~/contracts/estimates';
 import type { Channel } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { inRequestFieldNames } from './request-field-names';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
-import { MixerRequest } from './schemas';
 
 export const MIXER_MODEL =
   'Square law ID = IDSS·(1 − vGS/VP)², saturation only; no capacitances, no transit time, no gate current: a low-frequency estimate.';

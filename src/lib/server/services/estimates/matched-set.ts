@@ -1,13 +1,12 @@
 import { asc, eq } from 'drizzle-orm';
 import { matchedSetImplications, sourceResistorForCurrent } from '~/core/estimates';
-import type { MatchedSetEstimateJson } from '~/contracts/estimates';
+import { SetRequest, type MatchedSetEstimateJson } from '~/contracts/estimates';
 import { getDb, schema } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { loadOwnReservation } from '../reservations/get';
 import { inRequestFieldNames } from './request-field-names';
 import { fitReviewWarnings, loadPartModel } from './part-model';
-import { SetRequest } from './schemas';
 import { SELF_BIAS_RENAMES, selfBiasPointBody } from './self-bias';
 
 export const MATCHED_SET_MODEL =

@@ -1,11 +1,10 @@
 import { nearestPreferredValue, paramsFromIdssVp, solveSelfBias, sourceResistorForCurrent, type ESeries, type SelfBiasPoint } from '~/core/estimates';
-import type { SelfBiasEstimateJson, SelfBiasPointJson } from '~/contracts/estimates';
+import { SelfBiasRequest, type SelfBiasEstimateJson, type SelfBiasPointJson } from '~/contracts/estimates';
 import type { Channel, JfetParams } from '~/core/jfet-model';
 import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { inRequestFieldNames } from './request-field-names';
 import { describePartModel, fitReviewWarnings, loadPartModel } from './part-model';
-import { SelfBiasRequest } from './schemas';
 
 export const SELF_BIAS_MODEL =
   'SPICE level-1 JFET in saturation (with λ and the fitted RS/RD when the part has them), gate returned to ground through a resistor, VGS = −ID·RS solved exactly; low-frequency small-signal gm and gos.';

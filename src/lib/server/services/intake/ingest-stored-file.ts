@@ -7,7 +7,7 @@ import { decodeSweepBytes, SweepFileError } from '~/core/sweep-file';
 import { getDb, schema } from '~/db/client';
 import { describeFailure } from '~/lib/server/failure-text';
 import { readStoredUpload } from '~/lib/server/storage/uploads-fs';
-import { UploadTags } from '../uploads/schemas';
+import { UploadTags } from '~/contracts/uploads';
 import { deviceTypesByName } from './catalogue-cache';
 import { persistPlans, type PlannedFile } from './persist-plans';
 import { markRejected } from './reject-file';

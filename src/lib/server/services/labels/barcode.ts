@@ -1,15 +1,6 @@
 import bwipjs from 'bwip-js/node';
-import { z } from 'zod';
+import type { Symbology } from '~/contracts/labels';
 import { AppError } from '~/lib/server/errors';
-
-export const SYMBOLOGIES = ['code128', 'datamatrix'] as const;
-export type Symbology = (typeof SYMBOLOGIES)[number];
-
-export const BarcodeQuery = z.object({
-  text: z.string().min(1, 'give the text to encode').max(80, 'at most 80 characters'),
-  symbology: z.enum(SYMBOLOGIES).default('code128'),
-  format: z.enum(['svg', 'png']).default('svg'),
-});
 
 function options(text: string, symbology: Symbology) {
   // Code 128 bars 10 units tall per module scale; the human-readable text is printed by the

@@ -1,10 +1,10 @@
 import { eq, or, sql } from 'drizzle-orm';
-import type { LocationDeleted, LocationRecord } from '~/contracts/locations';
+import { LocationInput, LocationPatch, type LocationDeleted, type LocationRecord } from '~/contracts/locations';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import { barcodeFromName, LocationInput, LocationPatch } from './schemas';
+import { barcodeFromName } from './barcode-from-name';
 
 /** A stored location as creating and changing it answer. */
 function locationRecord(row: typeof schema.location.$inferSelect): LocationRecord {

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { AcceptFitsRequest, type FitAccepted, type FitsAccepted } from '~/contracts/review';
+import { AcceptFitsRequest, ReviewTarget, type FitAccepted, type FitsAccepted } from '~/contracts/review';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -7,7 +7,6 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { assignBinsForParts } from '../bins/assign-bins';
 import { changePartStatuses } from '../parts/change-status';
 import { loadReviewTarget } from './load-target';
-import { ReviewTarget } from './schemas';
 
 async function acceptOne(tx: DbOrTx, actor: Actor, serial: string, fitId: number | undefined, note: string | undefined): Promise<FitAccepted> {
   const { part, fit } = await loadReviewTarget(tx, serial, fitId);

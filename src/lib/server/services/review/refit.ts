@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { fitCurveFamily } from '~/core/fit/fit-curve-family';
-import type { RefitResult } from '~/contracts/review';
+import { RefitInput, type RefitResult } from '~/contracts/review';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
@@ -10,7 +10,6 @@ import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { toCurveFamily, toFlatIndices, type StoredCurve } from '../sweeps/stored-curves';
 import { loadReviewTarget } from './load-target';
-import { RefitInput } from './schemas';
 
 /**
  * Refits the current sweep with the points the inspector left out. The excluded points are

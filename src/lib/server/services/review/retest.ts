@@ -1,12 +1,11 @@
 import { eq } from 'drizzle-orm';
-import type { RetestResult } from '~/contracts/review';
+import { ReviewTarget, type RetestResult } from '~/contracts/review';
 import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { loadReviewTarget } from './load-target';
-import { ReviewTarget } from './schemas';
 
 /** Sends the part back to be measured again; its next sweep takes it out of `retest`. */
 export async function markForRetest({ actor, input }: { actor: Actor | null; input: unknown }): Promise<RetestResult> {

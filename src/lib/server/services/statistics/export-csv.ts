@@ -1,6 +1,6 @@
 import type { Actor } from '~/lib/server/identity';
 import { getStatistics } from './get';
-import { StatisticsExportQuery } from './schemas';
+import { StatisticsExportQuery } from '~/contracts/statistics';
 import { statisticsCsvFileName, statisticsTableCsv } from './to-csv';
 
 /** One table of the statistics report as a CSV file. */

@@ -1,5 +1,5 @@
 import { and, asc, eq, gte, inArray, lte, type SQL } from 'drizzle-orm';
-import type { StatisticsReport } from '~/contracts/statistics';
+import { StatisticsQuery, type StatisticsReport } from '~/contracts/statistics';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
@@ -10,7 +10,6 @@ import {
   type StatisticsTypeInfo,
   type TrendLotInfo,
 } from '~/core/statistics/type-report';
-import { StatisticsQuery } from './schemas';
 
 
 async function findDeviceType(db: DbOrTx, ref: string) {

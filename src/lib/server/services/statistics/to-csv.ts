@@ -1,6 +1,5 @@
 import { FIGURES } from '~/core/statistics/type-report';
-import type { StatisticsReport } from '~/contracts/statistics';
-import type { StatisticsTable } from './schemas';
+import type { StatisticsReport, StatisticsTable } from '~/contracts/statistics';
 import { writeCsv as csv } from '~/core/csv/write-csv';
 
 /** Pure: one table of a statistics report as CSV (the shared writer; SI units named in headers). */

@@ -1,14 +1,13 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { compareStockCount, type CountedPart, type StockCountResult } from '~/core/stock/compare-stock-count';
 import { describePartStatus } from '~/core/stock/part-transitions';
-import type { StockCountJson, StockCountPart } from '~/contracts/stock';
+import { StockCountInput, type StockCountJson, type StockCountPart } from '~/contracts/stock';
 import { getDb, schema, type DbOrTx } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts, type LowStockAlert } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { alertsJson, lockPartsById, resolveLocation } from './batch';
-import { StockCountInput } from './schemas';
 
 const ON_SHELF = ['in_stock', 'reserved'] as const;
 

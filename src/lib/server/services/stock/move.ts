@@ -2,8 +2,7 @@ import { getDb } from '~/db/client';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { changePartStatuses } from '../parts/change-status';
 import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
-import type { StockActionResult } from '~/contracts/stock';
-import { MoveInput } from './schemas';
+import { MoveInput, type StockActionResult } from '~/contracts/stock';
 
 /**
  * Moves parts on the shelf to another location (or back to their bin's home), in one

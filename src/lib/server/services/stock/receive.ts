@@ -5,8 +5,7 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { lockPartsById, lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
-import type { StockActionResult } from '~/contracts/stock';
-import { ReceiveInput } from './schemas';
+import { ReceiveInput, type StockActionResult } from '~/contracts/stock';
 
 /** States a part may be received from: freshly accepted, or back from an issue. */
 const RECEIVABLE = ['accepted', 'returned'] as const;

@@ -3,8 +3,7 @@ import { requirePermission, type Actor } from '~/lib/server/identity';
 import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses, type ChangedPart } from '../parts/change-status';
 import { lockPartsBySerial, refuseBatch, resolveLocation, statusWords, stockActionResult, type Refusal } from './batch';
-import type { StockActionResult } from '~/contracts/stock';
-import { ReturnInput } from './schemas';
+import { ReturnInput, type StockActionResult } from '~/contracts/stock';
 
 /**
  * Takes issued parts back: they become returned (to be looked at), or, with `restock`, go

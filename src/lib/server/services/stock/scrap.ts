@@ -4,8 +4,7 @@ import { checkLowStock, mailLowStockAlerts } from '../alerts/low-stock';
 import { changePartStatuses } from '../parts/change-status';
 import { partChangeMails, sendPartChangeMails } from '../reservations/mail-part-change';
 import { lockPartsBySerial, stockActionResult } from './batch';
-import type { StockActionResult } from '~/contracts/stock';
-import { ScrapInput } from './schemas';
+import { ScrapInput, type StockActionResult } from '~/contracts/stock';
 
 /**
  * Scraps parts with a reason, in one transaction; the status service refuses parts that may

@@ -7,8 +7,8 @@ import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
 import { getBoss, QUEUES } from '~/lib/server/jobs/boss';
 import { storeUploadBytes } from '~/lib/server/storage/uploads-fs';
-import { MAX_FILES_PER_UPLOAD, UploadTags } from './schemas';
-import type { UploadReceived } from '~/contracts/uploads';
+import { UploadTags, type UploadReceived } from '~/contracts/uploads';
+import { MAX_FILES_PER_UPLOAD } from './limits';
 
 export interface IncomingFile {
   name: string;

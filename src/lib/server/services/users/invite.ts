@@ -5,8 +5,7 @@ import { getAuth } from '~/lib/server/auth';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import type { UserInvited } from '~/contracts/users';
-import { InviteUserInput } from './schemas';
+import { InviteUserInput, type UserInvited } from '~/contracts/users';
 
 /**
  * Creates the account with a random password nobody knows, records the invitation, and mails

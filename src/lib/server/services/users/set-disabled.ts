@@ -3,8 +3,7 @@ import { getDb, schema } from '~/db/client';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import type { UserDisabledSet } from '~/contracts/users';
-import { SetDisabledInput } from './schemas';
+import { SetDisabledInput, type UserDisabledSet } from '~/contracts/users';
 
 /** Disables (bans) or re-enables an account; disabling also ends its sessions. */
 export async function setUserDisabled({ actor, input }: { actor: Actor | null; input: unknown }): Promise<UserDisabledSet> {

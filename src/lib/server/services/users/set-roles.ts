@@ -4,8 +4,7 @@ import { parseRoles } from '~/lib/access';
 import { writeAudit } from '~/lib/server/audit';
 import { AppError } from '~/lib/server/errors';
 import { requirePermission, type Actor } from '~/lib/server/identity';
-import type { UserRolesSet } from '~/contracts/users';
-import { SetRolesInput } from './schemas';
+import { SetRolesInput, type UserRolesSet } from '~/contracts/users';
 
 export async function setUserRoles({ actor, input }: { actor: Actor | null; input: unknown }): Promise<UserRolesSet> {
   requirePermission(actor, 'users:manage');
