@@ -268,4 +268,27 @@ describe('the candidate cache follows stock changes made anywhere', () => {
     await getDb().execute(sql`UPDATE device_type SET vtotc_v_per_c = ${type!.vtotcVPerC} WHERE id = ${type!.id}`);
     expect(later).not.toBe(first);
   });
+
+  it('only changes that touch stock are announced (parts in measurement or review are not)', async () => {
+    const { default: pg } = await import('pg');
+    const listener = new pg.Client({ connectionString: process.env.DATABASE_URL });
+    await listener.connect();
+    const heard: string[] = [];
+    listener.on('notification', (n) => heard.push(n.payload ?? ''));
+    await listener.query('LISTEN sluice_stock');
+    try {
+      const pick = async (status: string) =>
+        (await getDb().execute<{ id: number; type: number }>(sql`SELECT id, device_type_id AS type FROM part WHERE status = ${status} LIMIT 1`)).rows[0];
+      const outside = await pick('issued') ?? await pick('needs_review') ?? await pick('accepted');
+      expect(outside, 'the demo has a part outside stock').toBeDefined();
+      await getDb().execute(sql`UPDATE part SET updated_at = now() WHERE id = ${outside!.id}`);
+      const inside = (await pick('in_stock'))!;
+      await getDb().execute(sql`UPDATE part SET updated_at = now() WHERE id = ${inside.id}`);
+      for (let i = 0; i < 40 && heard.length === 0; i++) await new Promise((r) => setTimeout(r, 50));
+      await new Promise((r) => setTimeout(r, 250)); // room for a second notice, were one sent
+      expect(heard).toEqual([String(inside.type)]);
+    } finally {
+      await listener.end();
+    }
+  });
 });
