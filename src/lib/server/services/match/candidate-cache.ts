@@ -12,8 +12,9 @@ import { BASIS_FLOATS, packBasis } from './packed-bases';
  * Each candidate carries what `partOperatingFigures` needs: the fitted model, the measurements'
  * operating table, the sweep's temperature and the type's temperature coefficients.
  *
- * Freshness: the database announces every committed change to a part or a device type
- * (NOTIFY sluice_stock with the type's id, migration 0005); while that channel is open an entry
+ * Freshness: the database announces every committed change that touches stock — a part
+ * entering, leaving or changing while in stock — and every change to a device type (NOTIFY
+ * sluice_stock with the type's id, migrations 0005 and 0007); while that channel is open an entry
  * stays valid until a notice for its type arrives, and a request costs no query at all. A notice
  * reaches the server a moment after its commit, so a request in that moment sees the stock as it
  * was just before — as if it had come a moment earlier. Whenever the channel is closed, or has
