@@ -60,7 +60,8 @@ export default function PeopleAdmin({ selfId }: { selfId: string }) {
           <label className="field" htmlFor="invite-email">E-mail</label>
           <input className="input" id="invite-email" name="email" type="email" required />
         </div>
-        <button className="btn-primary" type="submit">Send invitation</button>
+        {/* On a phone the roles come before the button that sends them. */}
+        <button className="btn-primary order-last md:order-none" type="submit">Send invitation</button>
         <div className="md:col-span-3">
           <span className="field">Roles</span>
           <RolePicker value={inviteRoles} onChange={setInviteRoles} idPrefix="invite-role" />

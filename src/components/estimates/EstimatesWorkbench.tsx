@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from 'react';
 import { AppError } from '~/core/errors';
+import { normalizeSerial } from '~/core/serial/normalize-serial';
 import { checkInputsAgainstPart, estimateDefaultsForPart, type PartFigures } from '~/core/estimates/defaults-from-part';
 import { idssInDatasheetSign, vdsInDatasheetSign } from '~/core/units/datasheet-sign';
 import { columnFormat, formatMeasuredNumber, formatPlain } from '~/core/units/format-quantity';
@@ -232,8 +233,14 @@ function messageOf(e: unknown): string {
 }
 
 /** Self-bias, mixer and matched-set estimates for data-sheet values, a stored part or a set. */
-export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: string }) {
-  const [form, setForm] = useState<EstimateForm>(initialSerial ? { ...DEFAULT_FORM, source: 'part', serial: initialSerial } : DEFAULT_FORM);
+export default function EstimatesWorkbench({ initialSerial, initialSet }: { initialSerial?: string; initialSet?: string }) {
+  const [form, setForm] = useState<EstimateForm>(
+    initialSet
+      ? { ...DEFAULT_FORM, source: 'set', set_ref: initialSet }
+      : initialSerial
+        ? { ...DEFAULT_FORM, source: 'part', serial: initialSerial }
+        : DEFAULT_FORM,
+  );
   const [errors, setErrors] = useState<FieldErrors>({});
   const [formMessage, setFormMessage] = useState<string>();
   const [busy, setBusy] = useState(false);
@@ -247,7 +254,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
 
   useEffect(() => {
     if (form.source !== 'part') return;
-    const serial = form.serial.trim();
+    const serial = normalizeSerial(form.serial);
     if (!serial) {
       setStored(null);
       setStoredNote(undefined);
@@ -284,7 +291,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
       const vp = typed(form.vp_v);
       return idss !== undefined && vp !== undefined && idss > 0 && vp !== 0 ? { idssA: idss * 1e-3, vpV: vp } : null;
     }
-    if (form.source === 'part' && stored && stored.serial === form.serial.trim()) return stored;
+    if (form.source === 'part' && stored && stored.serial === normalizeSerial(form.serial)) return stored;
     return null;
   }, [form.source, form.idss_ma, form.vp_v, form.serial, stored]);
 
@@ -443,6 +450,9 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
         setFormMessage('Nothing to estimate: give a target drain current or a source resistor, or switch the mixer on.');
       }
     } catch (err) {
+      // Results of an earlier press no longer answer the inputs on screen.
+      setOutcomes([]);
+      setSetResult(null);
       if (err instanceof FormInputError) {
         setErrors(err.fields);
         setFormMessage(err.message);
@@ -512,7 +522,7 @@ export default function EstimatesWorkbench({ initialSerial }: { initialSerial?: 
               <Field
                 field="serial"
                 errors={shownErrors}
-                hint={stored && stored.serial === form.serial.trim() ? `IDSS ${formatQuantity(stored.idssA, 'A', 3)}, VP ${v(stored.vpV, 3)}: the bias and drive levels start from these` : storedNote ?? 'uses the part’s current fit'}
+                hint={stored && stored.serial === normalizeSerial(form.serial) ? `IDSS ${formatQuantity(stored.idssA, 'A', 3)}, VP ${v(stored.vpV, 3)}: the bias and drive levels start from these` : storedNote ?? 'uses the part’s current fit'}
               >
                 <input {...input('serial', { inputMode: undefined, autoComplete: 'off' })} />
               </Field>

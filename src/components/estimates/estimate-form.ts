@@ -3,6 +3,7 @@
  * request bodies of /api/estimates/*, and how the server's field names map back to inputs.
  */
 import { AppError } from '~/core/errors';
+import { normalizeSerial } from '~/core/serial/normalize-serial';
 
 export type PartSource = 'datasheet' | 'part' | 'set';
 /** 'half_vp': VGS0 = VP/2 of each part (a quarter of its IDSS); 'vgs0': one fixed VGS0; 'rs': a self-bias resistor. */
@@ -130,15 +131,16 @@ export function readNumber(form: EstimateForm, field: FormField, errors: FieldEr
 export function readSetRef(text: string): { reservation_id: string } | { serials: string[] } {
   const t = text.trim();
   if (/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(t)) return { reservation_id: t };
-  return { serials: t.split(/[\s,;]+/).filter(Boolean) };
+  return { serials: t.split(/[\s,;]+/).map(normalizeSerial).filter(Boolean) };
 }
 
 type PartRef = { serial: string } | { idss_a: number; vp_v: number; lambda_per_v?: number };
 
 export function partFields(form: EstimateForm, errors: FieldErrors): PartRef | undefined {
   if (form.source === 'part') {
-    if (!form.serial.trim()) errors.serial = 'expected the serial of a stored part';
-    return { serial: form.serial.trim() };
+    const serial = normalizeSerial(form.serial);
+    if (!serial) errors.serial = 'expected the serial of a stored part';
+    return { serial };
   }
   const idss = readNumber(form, 'idss_ma', errors, true, 1e-3);
   const vp = readNumber(form, 'vp_v', errors, true);

@@ -186,7 +186,7 @@ function SetCard({ set, proposal }: { set: ProposedSet; proposal: ProposalView }
           <tbody>
             {set.parts.map((p) => (
               <tr key={p.serial}>
-                <td className="font-mono">{p.serial}</td>
+                <td className="font-mono whitespace-nowrap">{p.serial}</td>
                 <td>{roleLabel(p.role, p.cascode_index)}</td>
                 <td>{p.bin_code ?? '—'}</td>
                 <td>{p.location ?? <span className="text-ink-faint">not recorded</span>}</td>

@@ -193,7 +193,7 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
                     {l.location ?? '—'}
                     {l.location_barcode && <span className="text-xs text-ink-faint"> {l.location_barcode}</span>}
                   </td>
-                  <td className="font-mono">{l.serial}</td>
+                  <td className="font-mono whitespace-nowrap">{l.serial}</td>
                   <td>{l.set_no}</td>
                   <td>{roleLabel(l.role, l.cascode_index)}</td>
                   <td>

@@ -88,6 +88,9 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
             </p>
           )}
           {r.purpose && <p className="text-sm mt-1">For: {r.purpose}</p>}
+          <p className="text-sm mt-2">
+            <a href={`/estimates?set=${encodeURIComponent(r.id)}`}>Stage estimates for these parts</a>
+          </p>
         </div>
         <div className="card p-4">
           <h2 className="text-base mb-1">Expiry</h2>
@@ -159,7 +162,7 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
               <tbody>
                 {s.parts.map((p) => (
                   <tr key={p.serial}>
-                    <td className="font-mono">{p.serial}</td>
+                    <td className="font-mono whitespace-nowrap">{p.serial}</td>
                     <td>{roleLabel(p.role, p.cascode_index)}</td>
                     <td>{p.bin_code ?? '—'}</td>
                     <td>{p.location ?? '—'}</td>

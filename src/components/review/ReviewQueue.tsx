@@ -110,7 +110,7 @@ export default function ReviewQueue() {
                     </label>
                   </td>
                 )}
-                <td className="font-mono">
+                <td className="font-mono whitespace-nowrap">
                   <a href={status === 'needs_review' ? `/review/${encodeURIComponent(it.serial)}` : `/parts/${encodeURIComponent(it.serial)}`}>{it.serial}</a>
                 </td>
                 <td className="hidden sm:table-cell">

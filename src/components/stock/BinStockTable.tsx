@@ -68,7 +68,7 @@ function EditableBin({ bin, locations, onSaved }: { bin: BinRow; locations: Loca
   return (
     <>
       <td>
-        <select aria-label={`Home location of ${bin.code}`} className="input py-0.5 text-sm" value={location} onChange={(e) => setLocation(e.target.value)}>
+        <select aria-label={`Home location of ${bin.code}`} className="input min-w-[11rem] py-0.5 text-sm" value={location} onChange={(e) => setLocation(e.target.value)}>
           <option value="">— none —</option>
           {locations.map((l) => (
             <option key={l.id} value={l.id}>{l.name}</option>
@@ -174,9 +174,9 @@ export default function BinStockTable({ deviceTypes, canEdit, initial }: { devic
             <tbody>
               {data.bins.map((b) => (
                 <tr key={b.id} className={b.low ? 'bg-state-faultbg/40' : undefined}>
-                  <td>{b.device_type} <span className="text-ink-faint text-xs">v{b.plan_version}</span></td>
+                  <td className="whitespace-nowrap">{b.device_type} <span className="text-ink-faint text-xs">v{b.plan_version}</span></td>
                   <td className="font-semibold whitespace-nowrap">{b.is_hold ? <span className="tag-held">{b.code}</span> : b.code}</td>
-                  <td className="text-ink-soft">{b.label}</td>
+                  <td className="min-w-[10rem] text-ink-soft">{b.label}</td>
                   {canEdit ? (
                     <EditableBin bin={b} locations={locations.data?.locations ?? []} onSaved={(text, ok) => setMessage({ text, ok })} />
                   ) : (
