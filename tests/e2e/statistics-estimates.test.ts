@@ -12,7 +12,8 @@ import { BASE_URL } from '../helpers/http';
 const RUN = Date.now().toString(36);
 const TYPE = `E2E-N-${RUN}`;
 const LOTS = [`E2E-A-${RUN}`, `E2E-B-${RUN}`, `E2E-C-${RUN}`];
-const PAIR = [`E2E-${RUN}-P1`, `E2E-${RUN}-P2`];
+// Serials are upper-case (normalizeSerial): the estimates page upper-cases what is typed, as every screen does.
+const PAIR = [`E2E-${RUN.toUpperCase()}-P1`, `E2E-${RUN.toUpperCase()}-P2`];
 
 async function seed() {
   const db = getDb();

@@ -71,10 +71,10 @@ export default function StationsAdmin() {
           <tbody>
             {data.stations.map((s) => (
               <tr key={s.id} data-testid={`station-${s.name}`}>
-                <td className="font-semibold">{s.name}</td>
+                <td className="min-w-[8rem] font-semibold">{s.name}</td>
                 <td className="font-mono text-xs">{s.token_prefix}…</td>
-                <td>{when(s.created_at)}</td>
-                <td>{when(s.last_used_at)}</td>
+                <td className="whitespace-nowrap">{when(s.created_at)}</td>
+                <td className="whitespace-nowrap">{when(s.last_used_at)}</td>
                 <td>{s.revoked_at ? <span className="tag-fault">revoked {when(s.revoked_at)}</span> : <span className="tag-ok">active</span>}</td>
                 <td className="text-right">{!s.revoked_at && <button type="button" className="btn-quiet" onClick={() => void revoke(s)}>Revoke</button>}</td>
               </tr>

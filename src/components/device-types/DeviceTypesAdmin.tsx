@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { formatOpenRange } from '~/core/units/format-quantity';
-import { apiFetch } from '../ui/api-client';
+import { ApiError, apiFetch } from '../ui/api-client';
 import type { DeviceTypeJson } from '~/contracts/device-types';
 import { useDeviceTypes } from '../api';
 import { Empty, ErrorNotice, Loading } from '../ui/states';
@@ -13,6 +13,28 @@ const mA = (v: FormDataEntryValue | null) => {
   const n = num(v);
   return n === null ? null : n / 1000;
 };
+
+/** The form's own label of each field the server names, so a refusal points at the box to correct. */
+const FIELD_LABELS: Record<string, string> = {
+  name: 'Name',
+  channel: 'Channel',
+  description: 'Description',
+  vds_test_v: 'IDSS test |VDS| (V)',
+  nominal_temperature_c: 'Nominal temperature (°C)',
+  vtotc_v_per_c: '|VP| change (mV/°C)',
+  betatce_pct_per_c: 'BETA change (%/°C)',
+  idss_min_a: 'IDSS min (mA)',
+  idss_max_a: 'IDSS max (mA)',
+  vp_min_v: 'VP min (V, datasheet sign)',
+  vp_max_v: 'VP max (V, datasheet sign)',
+};
+
+function refusalText(err: unknown): string {
+  const fields = err instanceof ApiError ? err.body?.error.fields : undefined;
+  if (!Array.isArray(fields) || fields.length === 0) return (err as Error).message;
+  const parts = fields.map((f: { field?: string; message?: string }) => `${FIELD_LABELS[f.field ?? ''] ?? f.field} — ${f.message}`);
+  return `Check ${parts.length === 1 ? 'this field' : 'these fields'}: ${parts.join('; ')}.`;
+}
 
 function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeJson; onSaved: (msg: string) => void; onCancel?: () => void }) {
   const [error, setError] = useState<string>();
@@ -35,6 +57,11 @@ function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeJson; on
       vp_min_v: num(f.get('vp_min_v')),
       vp_max_v: num(f.get('vp_max_v')),
     };
+    const notNumbers = Object.entries(body).filter(([k, v]) => (typeof v === 'number' && !Number.isFinite(v)) || (k === 'vds_test_v' && v === null)).map(([k]) => FIELD_LABELS[k] ?? k);
+    if (notNumbers.length) {
+      setError(`Check ${notNumbers.length === 1 ? 'this field' : 'these fields'}: ${notNumbers.join(', ')} — expected a number.`);
+      return;
+    }
     try {
       if (initial) await apiFetch(`/api/admin/device-types/${initial.id}`, { method: 'PUT', json: body });
       else await apiFetch('/api/admin/device-types', { method: 'POST', json: body });
@@ -42,7 +69,7 @@ function TypeForm({ initial, onSaved, onCancel }: { initial?: DeviceTypeJson; on
       if (!initial) form.reset();
       onSaved(`${body.name} saved.`);
     } catch (err) {
-      setError((err as Error).message);
+      setError(refusalText(err));
     }
   }
   const p = initial ? `edit-${initial.id}` : 'new';

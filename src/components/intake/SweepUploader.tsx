@@ -283,7 +283,8 @@ export default function SweepUploader({ deviceTypes, lots, canCreateLots = false
           locale={{
             strings: {
               // Uppy's "Upload complete" only means the bytes arrived; the verdict is each file's own.
-              uploadComplete: 'Files sent: each shows what the server made of it',
+              // Short enough for Uppy's one-line title on a phone (it cuts longer ones off).
+              uploadComplete: 'Sent: see each file',
               processingXFiles: { 0: 'Fitting %{smart_count} file on the server', 1: 'Fitting %{smart_count} files on the server' },
               error: 'Some files were refused: see each file',
             },

@@ -72,12 +72,12 @@ export default function LotsList({ canCreate, deviceTypes }: { canCreate: boolea
           <tbody>
             {data.lots.map((l) => (
               <tr key={l.code} data-testid={`lot-${l.code}`}>
-                <td className="font-mono"><a href={`/parts?lot=${encodeURIComponent(l.code)}`}>{l.code}</a></td>
-                <td>{l.device_type} <span className="text-ink-faint">({l.channel.toUpperCase()})</span></td>
+                <td className="font-mono whitespace-nowrap"><a href={`/parts?lot=${encodeURIComponent(l.code)}`}>{l.code}</a></td>
+                <td className="whitespace-nowrap">{l.device_type} <span className="text-ink-faint">({l.channel.toUpperCase()})</span></td>
                 <td>{l.supplier || '—'}</td>
                 <td className="whitespace-nowrap">{when(l.received_at)}</td>
                 <td className="num">{l.part_count}</td>
-                <td>
+                <td className="min-w-[14rem]">
                   <div className="flex flex-wrap gap-1">
                     {Object.entries(l.by_status).map(([s, n]) => (
                       <a key={s} className={`${statusClass(s)} no-underline`} href={`/parts?lot=${encodeURIComponent(l.code)}&status=${s}`}>

@@ -113,10 +113,10 @@ export default function PartsList({ deviceTypes, lots }: { deviceTypes: string[]
             <tbody>
               {data.parts.map((p) => (
                 <tr key={p.serial}>
-                  <td className="font-mono"><a href={`/parts/${encodeURIComponent(p.serial)}`}>{p.serial}</a></td>
-                  <td><span className={statusClass(p.status)}>{STATUS_WORDS[p.status] ?? p.status}</span></td>
-                  <td>{p.device_type}{p.lot ? <span className="text-ink-faint"> · {p.lot}</span> : null}</td>
-                  <td>{p.bin_code ?? <span className="text-ink-faint">—</span>}{p.location ? <span className="text-ink-faint"> · {p.location}</span> : null}</td>
+                  <td className="font-mono whitespace-nowrap"><a href={`/parts/${encodeURIComponent(p.serial)}`}>{p.serial}</a></td>
+                  <td className="whitespace-nowrap"><span className={statusClass(p.status)}>{STATUS_WORDS[p.status] ?? p.status}</span></td>
+                  <td className="min-w-[9rem]">{p.device_type}{p.lot ? <span className="text-ink-faint"> · {p.lot}</span> : null}</td>
+                  <td className="min-w-[10rem]">{p.bin_code ?? <span className="text-ink-faint">—</span>}{p.location ? <span className="text-ink-faint"> · {p.location}</span> : null}</td>
                   <td className="num">{col.idss.number(p.idss_a === null ? null : idssInDatasheetSign(p.idss_a, p.channel))}</td>
                   <td className="num">{col.vp.number(p.vp_v)}</td>
                   <td className="num">{col.gfs.number(p.gfs_s)}</td>

@@ -163,22 +163,22 @@ export default function ScanBatch({ action, onDone }: { action: StockAction; onD
       {rows.length > 0 && (
         <table className="table-plain bg-paper-raised" data-testid={`batch-${action}`}>
           <thead>
-            <tr><th className="w-44">Serial</th><th className="w-24">Result</th><th>Detail</th><th className="w-10"></th></tr>
+            <tr><th className="sm:w-44">Serial</th><th className="w-24">Result</th><th>Detail</th><th className="w-10"></th></tr>
           </thead>
           <tbody>
             {rows.map((r) => (
               <tr key={r.serial} data-serial={r.serial} data-state={r.state}>
-                <td className="font-mono">{r.serial}</td>
+                <td className="font-mono whitespace-nowrap">{r.serial}</td>
                 <td>
                   {r.state === 'checking' && <span className="tag-plain">checking</span>}
                   {r.state === 'ready' && <span className="tag-ok">ready</span>}
                   {r.state === 'problem' && <span className="tag-fault">cannot</span>}
                   {r.state === 'done' && <span className="tag-held">{VERB[action].done}</span>}
                 </td>
-                <td className="text-ink-soft">{r.note}</td>
+                <td className="min-w-[12rem] text-ink-soft">{r.note}</td>
                 <td>
                   {r.state !== 'done' && (
-                    <button type="button" className="text-ink-faint hover:text-state-fault" aria-label={`Remove ${r.serial}`} onClick={() => (setRows((rs) => rs.filter((x) => x.serial !== r.serial)), focusScan())}>×</button>
+                    <button type="button" className="min-h-11 min-w-11 text-ink-faint hover:text-state-fault md:min-h-0 md:min-w-0" aria-label={`Remove ${r.serial}`} onClick={() => (setRows((rs) => rs.filter((x) => x.serial !== r.serial)), focusScan())}>×</button>
                   )}
                 </td>
               </tr>
