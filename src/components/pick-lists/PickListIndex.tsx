@@ -52,7 +52,7 @@ export default function PickListIndex({ initialStatus }: { initialStatus?: strin
             <tbody>
               {rows.map((l) => (
                 <tr key={l.id}>
-                  <td>
+                  <td className="whitespace-nowrap">
                     <a className="font-mono" href={`/pick-lists/${l.id}`}>{l.code}</a>
                   </td>
                   <td>
@@ -62,15 +62,15 @@ export default function PickListIndex({ initialStatus }: { initialStatus?: strin
                     {l.reservation.designer_name}
                     {l.reservation.purpose && <span className="text-ink-faint"> · {l.reservation.purpose}</span>}
                   </td>
-                  <td>
+                  <td className="whitespace-nowrap">
                     {l.sets} × {l.device_type ?? '—'}
                   </td>
                   <td className="num">
                     {l.lines_picked} / {l.lines_total}
                   </td>
-                  <td>{l.status === 'open' ? (l.first_location ?? '—') : '—'}</td>
-                  <td>{dateTime(l.created_at)}</td>
-                  <td>{l.reservation.status === 'active' ? relativeTo(l.reservation.expires_at) : l.reservation.status}</td>
+                  <td className="min-w-[9rem]">{l.status === 'open' ? (l.first_location ?? '—') : '—'}</td>
+                  <td className="whitespace-nowrap">{dateTime(l.created_at)}</td>
+                  <td className="whitespace-nowrap">{l.reservation.status === 'active' ? relativeTo(l.reservation.expires_at) : l.reservation.status}</td>
                 </tr>
               ))}
             </tbody>

@@ -88,9 +88,11 @@ export default function ReservationDetail({ id, justMade }: { id: string; justMa
             </p>
           )}
           {r.purpose && <p className="text-sm mt-1">For: {r.purpose}</p>}
-          <p className="text-sm mt-2">
-            <a href={`/estimates?set=${encodeURIComponent(r.id)}`}>Stage estimates for these parts</a>
-          </p>
+          {(r.status === 'active' || r.status === 'issued') && (
+            <p className="text-sm mt-2">
+              <a href={`/estimates?set=${encodeURIComponent(r.id)}`}>Stage estimates for these parts</a>
+            </p>
+          )}
         </div>
         <div className="card p-4">
           <h2 className="text-base mb-1">Expiry</h2>

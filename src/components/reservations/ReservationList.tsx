@@ -32,18 +32,18 @@ export default function ReservationList() {
         <tbody>
           {rows.map((r) => (
             <tr key={r.id}>
-              <td>
+              <td className="whitespace-nowrap">
                 <a href={`/reservations/${r.id}`} className="font-mono">{r.code}</a>
               </td>
               <td>
                 <span className={STATUS_TAG[r.status] ?? 'tag-plain'}>{r.status}</span>
               </td>
-              <td>
+              <td className="min-w-[9rem]">
                 {r.sets} {r.shape ? SHAPE_WORDS[r.shape]?.[r.sets === 1 ? 'one' : 'many'] : ''} <span className="text-ink-faint">({r.parts} parts)</span>
               </td>
-              <td>{r.device_type ?? '—'}</td>
-              <td>{dateTime(r.created_at)}</td>
-              <td>{r.status === 'active' ? <span title={dateTime(r.expires_at)}>{relativeTo(r.expires_at)}</span> : <span className="text-ink-faint">—</span>}</td>
+              <td className="whitespace-nowrap">{r.device_type ?? '—'}</td>
+              <td className="whitespace-nowrap">{dateTime(r.created_at)}</td>
+              <td className="whitespace-nowrap">{r.status === 'active' ? <span title={dateTime(r.expires_at)}>{relativeTo(r.expires_at)}</span> : <span className="text-ink-faint">—</span>}</td>
               <td>
                 {r.pick_list ? (
                   <>
