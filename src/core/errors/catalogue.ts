@@ -494,7 +494,7 @@ export const ERROR_CATALOGUE = {
       `${p.serial} is not on pick list ${p.code}. ${
         p.part
           ? `That part is ${p.part.status}${p.part.location ? ` at ${p.part.location}` : ''}; leave it where it is.`
-          : 'No part has that serial: check the label, or type it by hand.'
+          : 'No part has that serial: compare it with the label and scan or type it again.'
       }`,
   },
   already_picked: {
