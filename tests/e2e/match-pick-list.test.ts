@@ -88,6 +88,17 @@ describe('designer asks for matched pairs, stores pick them by scanning', () => 
     await d.goto(`${BASE_URL}/reservations`);
     await d.getByRole('table', { name: 'Your reservations' }).waitFor();
     await screenshot(d, 'reservations-list');
+
+    // The designer hands one part back: stores tick it, and its line says it came back.
+    const back = s.getByRole('form', { name: 'Take parts back' });
+    const first = back.locator('label:has(input[type="checkbox"]) span.font-mono').first();
+    const backSerial = (await first.textContent())!.trim();
+    await back.getByRole('checkbox', { name: backSerial }).check();
+    await back.getByRole('button', { name: /Take back 1 part/ }).click();
+    await s.getByText(`Took back ${backSerial}`).waitFor();
+    const row = s.getByRole('row').filter({ hasText: backSerial });
+    await row.getByText('taken back, in stock').waitFor();
+    await screenshot(s, 'pick-list-taken-back');
     await designerCtx.close();
     await storesCtx.close();
   });

@@ -198,10 +198,17 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
                   <td>{roleLabel(l.role, l.cascode_index)}</td>
                   <td>
                     {l.picked_at ? (
-                      <span className="tag-ok">
-                        ✓ {formatTime(l.picked_at)}
-                        {l.picked_by && ` · ${l.picked_by}`}
-                      </span>
+                      <>
+                        <span className="tag-ok">
+                          ✓ {formatTime(l.picked_at)}
+                          {l.picked_by && ` · ${l.picked_by}`}
+                        </span>
+                        {(l.part_status === 'in_stock' || l.part_status === 'returned') && (
+                          <span className="ml-1 text-xs text-ink-soft whitespace-nowrap">
+                            taken back{l.part_status === 'in_stock' ? ', in stock' : ', held as returned'}
+                          </span>
+                        )}
+                      </>
                     ) : (
                       <span className="text-ink-faint">waiting</span>
                     )}
