@@ -9,7 +9,7 @@ import { BASE_URL } from '../helpers/http';
 
 /** The statistics and estimates pages in a real browser, on rows of our own. */
 
-const RUN = Date.now().toString(36);
+const RUN = Date.now().toString(36).toUpperCase(); // serials and codes are upper-case (normalizeSerial)
 const TYPE = `E2E-N-${RUN}`;
 const LOTS = [`E2E-A-${RUN}`, `E2E-B-${RUN}`, `E2E-C-${RUN}`];
 // Serials are upper-case (normalizeSerial): the estimates page upper-cases what is typed, as every screen does.
