@@ -20,8 +20,8 @@ const PickProgress = z.object({
   lines_picked: z.number().int(),
 });
 
-/** A row of `GET /api/reservations`: one of the designer's reservations, with what was matched and its pick list. */
-export const ReservationSummary = z.object({
+/** What every view of a reservation starts with. */
+const ReservationHead = z.object({
   id: z.string(),
   /** R- and the first 8 hex digits of the id. */
   code: z.string(),
@@ -30,6 +30,10 @@ export const ReservationSummary = z.object({
   created_at: IsoDateTime,
   expires_at: IsoDateTime,
   closed_at: IsoDateTime.nullable(),
+});
+
+/** A row of `GET /api/reservations`: one of the designer's reservations, with what was matched and its pick list. */
+export const ReservationSummary = ReservationHead.extend({
   device_type: z.string().nullable(),
   shape: z.string().nullable(),
   sets: z.number().int(),
@@ -76,14 +80,7 @@ export const ReservedSet = z.object({
 export type ReservedSet = z.infer<typeof ReservedSet>;
 
 /** `GET /api/reservations/{id}`: a reservation with what was asked for and its sets as matched. */
-export const ReservationView = z.object({
-  id: z.string(),
-  code: z.string(),
-  status: ReservationStatus,
-  purpose: z.string(),
-  created_at: IsoDateTime,
-  expires_at: IsoDateTime,
-  closed_at: IsoDateTime.nullable(),
+export const ReservationView = ReservationHead.extend({
   designer: z.object({ id: z.string(), name: z.string(), email: z.string() }),
   proposal_id: z.string().nullable(),
   device_type: ProposalView.shape.device_type.nullable(),

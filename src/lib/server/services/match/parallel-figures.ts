@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { evaluateRange, type FigureArrays } from '~/core/match/evaluate-at-operating-point';
+import { evaluateRange, firstSlots, type FigureArrays } from '~/core/match/evaluate-at-operating-point';
 import type { MatchCandidate, MatchInput, OperatingPoint } from '~/core/match/match-types';
 import { storableErrorMessage } from '~/core/text/storable-text';
 import { serverEnv } from '~/lib/server/env';
@@ -113,19 +113,8 @@ function sharedArrays(n: number): { figures: FigureArrays; unusable: Uint8Array 
       unusable: new Uint8Array(new SharedArrayBuffer(capacity)),
     };
   }
-  const f = shared.figures;
   return {
-    figures: {
-      idA: f.idA.subarray(0, n),
-      vgsV: f.vgsV.subarray(0, n),
-      gmS: f.gmS.subarray(0, n),
-      gosS: f.gosS.subarray(0, n),
-      idssA: f.idssA.subarray(0, n),
-      vdsSatV: f.vdsSatV.subarray(0, n),
-      vgsSigmaV: f.vgsSigmaV.subarray(0, n),
-      measured: f.measured.subarray(0, n),
-      temperatureShiftV: f.temperatureShiftV.subarray(0, n),
-    },
+    figures: firstSlots(shared.figures, n),
     unusable: shared.unusable.subarray(0, n),
   };
 }
