@@ -175,11 +175,12 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
         <table className="table-plain" aria-label="Lines">
           <thead>
             <tr>
-              <th className="num !text-right">Line</th>
+              {/* On a phone the line number goes and the role joins the set, so "Picked" stays in view. */}
+              <th className="num !text-right hidden sm:table-cell">Line</th>
               <th>Location</th>
               <th>Serial</th>
               <th>Set</th>
-              <th>Role</th>
+              <th className="hidden sm:table-cell">Role</th>
               <th>Picked</th>
             </tr>
           </thead>
@@ -188,27 +189,31 @@ export default function PickListScanner({ id, canPick }: { id: string; canPick: 
               const isCurrent = open && current?.line_no === l.line_no;
               return (
                 <tr key={l.line_no} className={isCurrent ? 'bg-channel-50' : l.picked_at ? 'text-ink-faint' : ''} aria-current={isCurrent ? 'step' : undefined}>
-                  <td className="num">{l.line_no}</td>
+                  <td className="num hidden sm:table-cell">{l.line_no}</td>
                   <td>
                     {l.location ?? '—'}
                     {l.location_barcode && <span className="text-xs text-ink-faint"> {l.location_barcode}</span>}
                   </td>
                   <td className="font-mono whitespace-nowrap">{l.serial}</td>
-                  <td>{l.set_no}</td>
-                  <td>{roleLabel(l.role, l.cascode_index)}</td>
+                  <td className="whitespace-nowrap">
+                    {l.set_no}
+                    <span className="sm:hidden"> · {roleLabel(l.role, l.cascode_index)}</span>
+                  </td>
+                  <td className="hidden sm:table-cell">{roleLabel(l.role, l.cascode_index)}</td>
                   <td>
                     {l.picked_at ? (
-                      <>
-                        <span className="tag-ok">
+                      <div className="flex flex-col items-start gap-0.5 sm:flex-row sm:items-center sm:gap-1">
+                        <span className="tag-ok whitespace-nowrap">
                           ✓ {formatTime(l.picked_at)}
-                          {l.picked_by && ` · ${l.picked_by}`}
+                          {/* The picker's name on wider screens; a phone keeps the column narrow. */}
+                          {l.picked_by && <span className="hidden sm:inline"> · {l.picked_by}</span>}
                         </span>
                         {(l.part_status === 'in_stock' || l.part_status === 'returned') && (
-                          <span className="ml-1 text-xs text-ink-soft whitespace-nowrap">
+                          <span className="text-xs text-ink-soft sm:whitespace-nowrap">
                             taken back{l.part_status === 'in_stock' ? ', in stock' : ', held as returned'}
                           </span>
                         )}
-                      </>
+                      </div>
                     ) : (
                       <span className="text-ink-faint">waiting</span>
                     )}
